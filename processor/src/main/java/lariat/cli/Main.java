@@ -1,0 +1,22 @@
+package lariat.cli;
+
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+
+/** Entry point of the {@code lariat} command line. */
+@Command(name = "lariat", mixinStandardHelpOptions = true,
+        description = "Streaming lasso-path feature selection for Kafka pipelines.")
+public final class Main implements Runnable {
+
+    @CommandLine.Spec
+    CommandLine.Model.CommandSpec spec;
+
+    public static void main(String[] args) {
+        System.exit(new CommandLine(new Main()).execute(args));
+    }
+
+    @Override
+    public void run() {
+        spec.commandLine().usage(System.out);
+    }
+}
