@@ -73,7 +73,7 @@ public final class EmbeddedBroker implements AutoCloseable {
         return builder().start();
     }
 
-    /** Returns a builder with free ports, a temporary data folder and a 60 s start timeout. */
+    /** Returns a builder with free ports, a temporary data folder and a 120 s start timeout. */
     public static Builder builder() {
         return new Builder();
     }
@@ -261,7 +261,7 @@ public final class EmbeddedBroker implements AutoCloseable {
     public static final class Builder {
         private int port;
         private Path dataDir;
-        private Duration startTimeout = Duration.ofSeconds(60);
+        private Duration startTimeout = Duration.ofSeconds(120);
 
         private Builder() {
         }
