@@ -8,7 +8,7 @@ import org.junit.jupiter.api.Test;
 
 class NearestNameTest {
 
-    /** kitten -> sitting takes three edits (common textbook example of edit distance). */
+    /** kitten -> sitting takes three edits (a standard example of edit distance; common practice, from memory). */
     @Test
     void distance_kittenSitting_isThree() {
         assertEquals(3, NearestName.distance("kitten", "sitting"));
