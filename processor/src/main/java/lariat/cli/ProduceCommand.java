@@ -54,9 +54,11 @@ import picocli.CommandLine.Spec;
                     + "seed sends the same records in the same order. Uses an idempotent producer "
                     + "with acks=all. Ctrl-C stops after flushing what was sent."},
         footer = {"", "Examples:",
-            "  lariat produce --bootstrap-servers 127.0.0.1:9092 --topic readings --create-topic",
-            "  lariat produce --bootstrap-servers 127.0.0.1:9092 --topic readings --duration 90s \\",
-            "      --rate 2000 --stations 8 --csv sent.csv --format json",
+            "  lariat produce --bootstrap-servers 127.0.0.1:9092 \\",
+            "      --topic readings --create-topic",
+            "  lariat produce --bootstrap-servers 127.0.0.1:9092 \\",
+            "      --topic readings --duration 90s --rate 2000 --stations 8 \\",
+            "      --csv sent.csv --format json",
             "", "Exit codes: 0 all records acknowledged; 1 broker, topic or send failure; 2 bad options."})
 public final class ProduceCommand implements Callable<Integer> {
 

@@ -49,7 +49,7 @@ final class PathPlot {
         double yhi = hi + pad;
         Scale y = v -> TOP + (yhi - v) / (yhi - ylo) * ph;
         Scale x = r -> LEFT + (1 - r) * pw;
-        double step = Ticks.step(ylo, yhi, 6);
+        double step = Ticks.step(ylo, yhi, 8);
         for (double v : Ticks.values(ylo, yhi, step)) {
             svg.line(LEFT, y.at(v), LEFT + pw, y.at(v), "#e4e4e4", 1, null);
             svg.text(LEFT - 6, y.at(v) + 4, "end", Ticks.label(v, step));
