@@ -43,6 +43,22 @@ public final class ReadingEncoder {
         return format;
     }
 
+    /**
+     * The stage's input settings (lariat.config.StageConfig keys) that decode what this encoder
+     * writes: the format, the channel map with the target in it, the station as model key, the
+     * event-time field and the weight field. The caller adds {@code input.topic}.
+     */
+    public Map<String, String> stageInputProperties() {
+        Map<String, String> p = new LinkedHashMap<>();
+        p.put("input.format", format == WireFormat.AVRO ? "avro-single-object" : "json");
+        p.put("field.features.map", "channels");
+        p.put("field.target", columns.get(columns.size() - 1));
+        p.put("field.key", "station");
+        p.put("field.time", "time");
+        p.put("field.weight", "weight");
+        return Map.copyOf(p);
+    }
+
     /** The record key: the station name, UTF-8. */
     public byte[] key(StationRow row) {
         return row.station().getBytes(StandardCharsets.UTF_8);
