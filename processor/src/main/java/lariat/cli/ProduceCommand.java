@@ -229,7 +229,7 @@ public final class ProduceCommand implements Callable<Integer> {
     }
 
     private int send(Scenario scenario, Properties client, PrintWriter out, PrintWriter err)
-            throws IOException, InterruptedException {
+            throws IOException {
         Properties p = new Properties();
         p.putAll(client);
         p.setProperty(ProducerConfig.ENABLE_IDEMPOTENCE_CONFIG, "true");
@@ -251,15 +251,26 @@ public final class ProduceCommand implements Callable<Integer> {
             }
         }, "lariat-produce-shutdown");
         Runtime.getRuntime().addShutdownHook(hook);
+        try {
+            return sendAndReport(sender, p, scenario, progress, out, err);
+        } finally {
+            done.countDown();
+            if (!progress.stop) {
+                try {
+                    Runtime.getRuntime().removeShutdownHook(hook);
+                } catch (IllegalStateException shuttingDown) {
+                    progress.stop = true;
+                }
+            }
+        }
+    }
+
+    private int sendAndReport(ScenarioProducer sender, Properties p, Scenario scenario, Progress progress,
+            PrintWriter out, PrintWriter err) throws IOException {
         ScenarioProducer.Result result;
         try (Producer<byte[], byte[]> producer = new KafkaProducer<>(p);
              CsvCopy copy = csv == null ? null : CsvCopy.open(writer(csv), scenario)) {
             result = sender.run(producer, copy, progress, () -> progress.stop);
-        } finally {
-            done.countDown();
-        }
-        if (!progress.stop) {
-            Runtime.getRuntime().removeShutdownHook(hook);
         }
         progress.finish();
         if (result.failure() != null) {
@@ -268,8 +279,9 @@ public final class ProduceCommand implements Callable<Integer> {
             err.flush();
             return 1;
         }
-        out.printf(Locale.ROOT, "Sent %d records (%d acknowledged) to %s in %.1f s; event time reached %s.%n",
-                result.sent(), result.acknowledged(), topic, result.elapsedSeconds(), minute(result.lastEventTimeMs()));
+        out.printf(Locale.ROOT, "Sent %d records (%d acknowledged) to %s in %.1f s; event time reached %s.%s%n",
+                result.sent(), result.acknowledged(), topic, result.elapsedSeconds(), minute(result.lastEventTimeMs()),
+                progress.stop ? " Stopped early." : "");
         if (csv != null) {
             out.printf(Locale.ROOT, "CSV copy: %s (%d rows).%n", csv, result.sent());
         }
