@@ -1,0 +1,292 @@
+package lariat.stage;
+
+import java.util.LinkedHashMap;
+import java.util.Map;
+
+/**
+ * The Kafka-side settings of the stage: topics, identity, cycle and refit schedule, snapshot
+ * sizes, metrics port and the client properties passed through to every Kafka client.
+ * Immutable; built by {@link #builder()} (the run command fills it from the configuration).
+ */
+public final class StageSettings {
+
+    private final Map<String, Object> clientProperties;
+    private final String inputTopic;
+    private final String modelTopic;
+    private final String alertTopic;
+    private final String deadLetterTopic;
+    private final String snapshotTopic;
+    private final String stageId;
+    private final String instanceId;
+    private final long cycleIntervalMs;
+    private final long refitEveryRecords;
+    private final long refitEveryEventMs;
+    private final int alertPersistence;
+    private final int snapshotChunkBytes;
+    private final int snapshotMaxMessageBytes;
+    private final short replicationFactor;
+    private final long modelRetentionMs;
+    private final int metricsPort;
+    private final long closeTimeoutMs;
+    private final long restoreTimeoutMs;
+
+    private StageSettings(Builder b) {
+        this.clientProperties = Map.copyOf(b.clientProperties);
+        this.inputTopic = require("input.topic", b.inputTopic);
+        this.modelTopic = require("model.topic", b.modelTopic);
+        this.alertTopic = require("alert.topic", b.alertTopic);
+        this.deadLetterTopic = require("dead.letter.topic", b.deadLetterTopic);
+        this.snapshotTopic = require("snapshot.topic", b.snapshotTopic);
+        this.stageId = require("stage.id", b.stageId);
+        this.instanceId = require("stage.instance", b.instanceId);
+        this.cycleIntervalMs = atLeast("cycle.interval.ms", b.cycleIntervalMs, 1);
+        this.refitEveryRecords = atLeast("refit.every.records", b.refitEveryRecords, 0);
+        this.refitEveryEventMs = atLeast("refit.every.event.ms", b.refitEveryEventMs, 0);
+        if (refitEveryRecords == 0 && refitEveryEventMs == 0) {
+            throw new IllegalArgumentException("refit.every.records and refit.every.event.ms are both 0: no refit "
+                    + "would ever run");
+        }
+        this.alertPersistence = (int) atLeast("alert.persistence.refits", b.alertPersistence, 1);
+        this.snapshotChunkBytes = (int) atLeast("snapshot.chunk.bytes", b.snapshotChunkBytes, 1024);
+        this.snapshotMaxMessageBytes = (int) atLeast("snapshot.max.message.bytes", b.snapshotMaxMessageBytes,
+                b.snapshotChunkBytes + 1024L);
+        if (b.replicationFactor < -1 || b.replicationFactor == 0) {
+            throw new IllegalArgumentException("topic.replication.factor must be -1 (broker default) or >= 1, was "
+                    + b.replicationFactor);
+        }
+        this.replicationFactor = b.replicationFactor;
+        if (b.modelRetentionMs < -1 || b.modelRetentionMs == 0) {
+            throw new IllegalArgumentException("model.topic.retention.ms must be -1 (forever) or >= 1, was "
+                    + b.modelRetentionMs);
+        }
+        this.modelRetentionMs = b.modelRetentionMs;
+        if (b.metricsPort < -1 || b.metricsPort > 65535) {
+            throw new IllegalArgumentException("metrics.port must be -1 (off), 0 (any) or a port, was "
+                    + b.metricsPort);
+        }
+        this.metricsPort = b.metricsPort;
+        this.closeTimeoutMs = atLeast("shutdown.timeout.ms", b.closeTimeoutMs, 0);
+        this.restoreTimeoutMs = atLeast("restore.timeout.ms", b.restoreTimeoutMs, 1);
+    }
+
+    private static String require(String key, String value) {
+        if (value == null || value.isBlank()) {
+            throw new IllegalArgumentException(key + " must be set, was '" + value + "'");
+        }
+        return value;
+    }
+
+    private static long atLeast(String key, long value, long min) {
+        if (value < min) {
+            throw new IllegalArgumentException(key + " must be >= " + min + ", was " + value);
+        }
+        return value;
+    }
+
+    public static Builder builder() {
+        return new Builder();
+    }
+
+    /** Properties given to every Kafka client (bootstrap servers, security). */
+    public Map<String, Object> clientProperties() {
+        return new LinkedHashMap<>(clientProperties);
+    }
+
+    public String inputTopic() {
+        return inputTopic;
+    }
+
+    public String modelTopic() {
+        return modelTopic;
+    }
+
+    public String alertTopic() {
+        return alertTopic;
+    }
+
+    public String deadLetterTopic() {
+        return deadLetterTopic;
+    }
+
+    public String snapshotTopic() {
+        return snapshotTopic;
+    }
+
+    /** The consumer group id. */
+    public String stageId() {
+        return stageId;
+    }
+
+    public String instanceId() {
+        return instanceId;
+    }
+
+    /** {@code stage.id + "-" + stage.instance}: stable across restarts of one instance. */
+    public String transactionalId() {
+        return stageId + "-" + instanceId;
+    }
+
+    public long cycleIntervalMs() {
+        return cycleIntervalMs;
+    }
+
+    public long refitEveryRecords() {
+        return refitEveryRecords;
+    }
+
+    public long refitEveryEventMs() {
+        return refitEveryEventMs;
+    }
+
+    public int alertPersistence() {
+        return alertPersistence;
+    }
+
+    public int snapshotChunkBytes() {
+        return snapshotChunkBytes;
+    }
+
+    public int snapshotMaxMessageBytes() {
+        return snapshotMaxMessageBytes;
+    }
+
+    /** Replication factor for created topics; -1 means the broker's default. */
+    public short replicationFactor() {
+        return replicationFactor;
+    }
+
+    public long modelRetentionMs() {
+        return modelRetentionMs;
+    }
+
+    /** Metrics port; -1 is off, 0 picks a free port. */
+    public int metricsPort() {
+        return metricsPort;
+    }
+
+    public long closeTimeoutMs() {
+        return closeTimeoutMs;
+    }
+
+    public long restoreTimeoutMs() {
+        return restoreTimeoutMs;
+    }
+
+    /** Mutable builder; defaults are those of the configuration reference. */
+    public static final class Builder {
+        private final Map<String, Object> clientProperties = new LinkedHashMap<>();
+        private String inputTopic;
+        private String modelTopic;
+        private String alertTopic;
+        private String deadLetterTopic;
+        private String snapshotTopic;
+        private String stageId = "lariat";
+        private String instanceId = "0";
+        private long cycleIntervalMs = 1000;
+        private long refitEveryRecords = 1000;
+        private long refitEveryEventMs = 0;
+        private long alertPersistence = 1;
+        private long snapshotChunkBytes = 512 * 1024;
+        private long snapshotMaxMessageBytes = 2 * 1024 * 1024;
+        private short replicationFactor = -1;
+        private long modelRetentionMs = -1;
+        private int metricsPort = -1;
+        private long closeTimeoutMs = 10_000;
+        private long restoreTimeoutMs = 120_000;
+
+        private Builder() {
+        }
+
+        public Builder clientProperty(String name, Object value) {
+            clientProperties.put(name, value);
+            return this;
+        }
+
+        public Builder clientProperties(Map<String, ?> props) {
+            clientProperties.putAll(props);
+            return this;
+        }
+
+        /** Sets input, model, alert, dead-letter and snapshot topics at once. */
+        public Builder topics(String input, String model, String alert, String deadLetter, String snapshot) {
+            this.inputTopic = input;
+            this.modelTopic = model;
+            this.alertTopic = alert;
+            this.deadLetterTopic = deadLetter;
+            this.snapshotTopic = snapshot;
+            return this;
+        }
+
+        public Builder stageId(String v) {
+            this.stageId = v;
+            return this;
+        }
+
+        public Builder instanceId(String v) {
+            this.instanceId = v;
+            return this;
+        }
+
+        public Builder cycleIntervalMs(long v) {
+            this.cycleIntervalMs = v;
+            return this;
+        }
+
+        public Builder refitEveryRecords(long v) {
+            this.refitEveryRecords = v;
+            return this;
+        }
+
+        public Builder refitEveryEventMs(long v) {
+            this.refitEveryEventMs = v;
+            return this;
+        }
+
+        public Builder alertPersistence(long v) {
+            this.alertPersistence = v;
+            return this;
+        }
+
+        public Builder snapshotChunkBytes(long v) {
+            this.snapshotChunkBytes = v;
+            return this;
+        }
+
+        public Builder snapshotMaxMessageBytes(long v) {
+            this.snapshotMaxMessageBytes = v;
+            return this;
+        }
+
+        public Builder replicationFactor(short v) {
+            this.replicationFactor = v;
+            return this;
+        }
+
+        public Builder modelRetentionMs(long v) {
+            this.modelRetentionMs = v;
+            return this;
+        }
+
+        public Builder metricsPort(int v) {
+            this.metricsPort = v;
+            return this;
+        }
+
+        public Builder closeTimeoutMs(long v) {
+            this.closeTimeoutMs = v;
+            return this;
+        }
+
+        public Builder restoreTimeoutMs(long v) {
+            this.restoreTimeoutMs = v;
+            return this;
+        }
+
+        /**
+         * @throws IllegalArgumentException naming the first key whose value is invalid
+         */
+        public StageSettings build() {
+            return new StageSettings(this);
+        }
+    }
+}
