@@ -49,7 +49,29 @@ public final class SnapshotFormat {
     }
 
     /** What a snapshot-topic record is, once parsed. */
-    public enum Kind { MANIFEST, CHUNK, FOREIGN }
+    public enum Kind { MANIFEST, CHUNK, OFFSET, FOREIGN }
+
+    private static final byte OFFSET = 'O';
+    private static final byte[] OFFSET_KEY = "o|".getBytes(StandardCharsets.UTF_8);
+
+    /**
+     * The partition's position marker: key {@code "o|"}, value MAGIC, 'O', next input offset.
+     * Written in every transaction beside the consumed offsets, so a partition whose group
+     * offsets expired still resumes where its snapshot was taken.
+     */
+    public static Entry offsetMarker(long nextOffset) {
+        ByteBuffer v = ByteBuffer.allocate(10);
+        v.put(MAGIC).put(OFFSET).putLong(nextOffset);
+        return new Entry(OFFSET_KEY.clone(), v.array());
+    }
+
+    /** Next input offset of a marker value, or -1 when it is malformed. */
+    static long parseOffsetMarker(byte[] value) {
+        if (value == null || value.length != 10 || value[0] != MAGIC || value[1] != OFFSET) {
+            return -1;
+        }
+        return ByteBuffer.wrap(value, 2, 8).getLong();
+    }
 
     /**
      * Splits {@code state} into chunk entries followed by the manifest, plus tombstones for
@@ -93,7 +115,16 @@ public final class SnapshotFormat {
         if (key == null || key.length < 2 || key[1] != '|') {
             return Kind.FOREIGN;
         }
-        return key[0] == 'm' ? Kind.MANIFEST : key[0] == 'c' ? Kind.CHUNK : Kind.FOREIGN;
+        switch (key[0]) {
+            case 'm':
+                return Kind.MANIFEST;
+            case 'c':
+                return Kind.CHUNK;
+            case 'o':
+                return key.length == 2 ? Kind.OFFSET : Kind.FOREIGN;
+            default:
+                return Kind.FOREIGN;
+        }
     }
 
     /** Model key of a manifest record key. */

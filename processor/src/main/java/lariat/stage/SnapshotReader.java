@@ -22,6 +22,17 @@ final class SnapshotReader {
 
     private static final Logger LOG = LoggerFactory.getLogger(SnapshotReader.class);
 
+    /** The complete states of one partition and its position marker (-1 when absent). */
+    static final class Partition {
+        final Map<String, Restored> states;
+        final long nextOffset;
+
+        Partition(Map<String, Restored> states, long nextOffset) {
+            this.states = states;
+            this.nextOffset = nextOffset;
+        }
+    }
+
     /** A restored state and the number of chunks it occupied. */
     static final class Restored {
         final byte[] state;
@@ -48,12 +59,13 @@ final class SnapshotReader {
      *
      * @throws org.apache.kafka.common.errors.TimeoutException when the end is not reached in time
      */
-    Map<String, Restored> read(TopicPartition tp) {
+    Partition read(TopicPartition tp) {
         consumer.assign(List.of(tp));
         consumer.seekToBeginning(List.of(tp));
         long end = consumer.endOffsets(List.of(tp), timeout).get(tp);
         Map<String, SnapshotFormat.Manifest> manifests = new LinkedHashMap<>();
         Map<String, Map<Integer, SnapshotFormat.Chunk>> chunks = new HashMap<>();
+        long[] marker = {-1};
         long deadline = System.nanoTime() + timeout.toNanos();
         while (consumer.position(tp, timeout) < end) {
             if (System.nanoTime() > deadline) {
@@ -62,7 +74,7 @@ final class SnapshotReader {
             }
             ConsumerRecords<byte[], byte[]> batch = consumer.poll(Duration.ofMillis(200));
             for (ConsumerRecord<byte[], byte[]> r : batch) {
-                collect(r, manifests, chunks);
+                collect(r, manifests, chunks, marker);
             }
         }
         consumer.assign(List.of());
@@ -83,11 +95,11 @@ final class SnapshotReader {
                 out.put(e.getKey(), new Restored(state, m.chunkCount));
             }
         }
-        return out;
+        return new Partition(out, marker[0]);
     }
 
     private static void collect(ConsumerRecord<byte[], byte[]> r, Map<String, SnapshotFormat.Manifest> manifests,
-                                Map<String, Map<Integer, SnapshotFormat.Chunk>> chunks) {
+                                Map<String, Map<Integer, SnapshotFormat.Chunk>> chunks, long[] marker) {
         switch (SnapshotFormat.kindOf(r.key())) {
             case MANIFEST: {
                 String key = SnapshotFormat.manifestModelKey(r.key());
@@ -107,6 +119,9 @@ final class SnapshotReader {
                 }
                 break;
             }
+            case OFFSET:
+                marker[0] = SnapshotFormat.parseOffsetMarker(r.value());
+                break;
             default:
                 break;
         }

@@ -19,6 +19,7 @@ public final class StageMetrics {
     private final Map<String, LongAdder> rejectedByReason = new ConcurrentHashMap<>();
     private final LongAdder refits = new LongAdder();
     private final DoubleAdder refitSeconds = new DoubleAdder();
+    private final LongAdder refitsFailed = new LongAdder();
     private final LongAdder versionsPublished = new LongAdder();
     private final LongAdder alerts = new LongAdder();
     private final LongAdder committed = new LongAdder();
@@ -51,6 +52,11 @@ public final class StageMetrics {
     public void refit(double seconds) {
         refits.increment();
         refitSeconds.add(seconds);
+    }
+
+    /** Counts one refit that threw. */
+    public void refitFailed() {
+        refitsFailed.increment();
     }
 
     public void versionPublished() {
@@ -133,6 +139,8 @@ public final class StageMetrics {
         }
         counter(out, "lariat_refits_total", "Path refits computed.", refits.sum());
         counter(out, "lariat_refit_seconds_total", "Wall seconds spent in refits.", refitSeconds.sum());
+        counter(out, "lariat_refits_failed_total", "Refits that failed; the key published nothing then.",
+                refitsFailed.sum());
         counter(out, "lariat_versions_published_total", "Model versions sent in committed or open transactions.",
                 versionsPublished.sum());
         counter(out, "lariat_alerts_total", "Change alerts sent.", alerts.sum());

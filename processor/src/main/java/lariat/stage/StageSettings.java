@@ -29,6 +29,9 @@ public final class StageSettings {
     private final int metricsPort;
     private final long closeTimeoutMs;
     private final long restoreTimeoutMs;
+    private final int blockSize;
+    private final double halfLifeMs;
+    private final int cvFolds;
 
     private StageSettings(Builder b) {
         this.clientProperties = Map.copyOf(b.clientProperties);
@@ -67,6 +70,15 @@ public final class StageSettings {
         this.metricsPort = b.metricsPort;
         this.closeTimeoutMs = atLeast("shutdown.timeout.ms", b.closeTimeoutMs, 0);
         this.restoreTimeoutMs = atLeast("restore.timeout.ms", b.restoreTimeoutMs, 1);
+        this.blockSize = (int) atLeast("moments.block.size", b.blockSize, 1);
+        if (!(b.halfLifeMs > 0)) {
+            throw new IllegalArgumentException("moments.half.life.ms must be > 0 or Infinity, was " + b.halfLifeMs);
+        }
+        this.halfLifeMs = b.halfLifeMs;
+        if (b.cvFolds == 1 || b.cvFolds < 0) {
+            throw new IllegalArgumentException("select.cv.folds must be 0 (off) or >= 2, was " + b.cvFolds);
+        }
+        this.cvFolds = b.cvFolds;
     }
 
     private static String require(String key, String value) {
@@ -172,6 +184,21 @@ public final class StageSettings {
         return restoreTimeoutMs;
     }
 
+    /** Records per moments block. */
+    public int blockSize() {
+        return blockSize;
+    }
+
+    /** Forgetting half-life in event-time ms; {@code Double.POSITIVE_INFINITY} for none. */
+    public double halfLifeMs() {
+        return halfLifeMs;
+    }
+
+    /** Cross-validation folds kept per key; 0 keeps none. */
+    public int cvFolds() {
+        return cvFolds;
+    }
+
     /** Mutable builder; defaults are those of the configuration reference. */
     public static final class Builder {
         private final Map<String, Object> clientProperties = new LinkedHashMap<>();
@@ -193,6 +220,9 @@ public final class StageSettings {
         private int metricsPort = -1;
         private long closeTimeoutMs = 10_000;
         private long restoreTimeoutMs = 120_000;
+        private long blockSize = 64;
+        private double halfLifeMs = Double.POSITIVE_INFINITY;
+        private int cvFolds = 0;
 
         private Builder() {
         }
@@ -279,6 +309,21 @@ public final class StageSettings {
 
         public Builder restoreTimeoutMs(long v) {
             this.restoreTimeoutMs = v;
+            return this;
+        }
+
+        public Builder blockSize(long v) {
+            this.blockSize = v;
+            return this;
+        }
+
+        public Builder halfLifeMs(double v) {
+            this.halfLifeMs = v;
+            return this;
+        }
+
+        public Builder cvFolds(int v) {
+            this.cvFolds = v;
             return this;
         }
 
