@@ -24,6 +24,27 @@ public final class FoldMoments {
         }
     }
 
+    /**
+     * Folds holding copies of {@code folds}, in order (the inverse of {@link #foldList()}), e.g. to
+     * restore fold moments from their canonical bytes.
+     *
+     * @throws IllegalArgumentException when fewer than two folds are given or widths differ
+     */
+    public static FoldMoments of(List<Moments> folds) {
+        if (folds.size() < 2) {
+            throw new IllegalArgumentException("folds must hold >= 2 moments, was " + folds.size());
+        }
+        FoldMoments f = new FoldMoments(folds.get(0).width(), folds.size());
+        for (int k = 0; k < folds.size(); k++) {
+            if (folds.get(k).width() != f.width()) {
+                throw new IllegalArgumentException("folds[" + k + "] has width " + folds.get(k).width()
+                        + ", folds[0] has " + f.width());
+            }
+            f.folds[k] = folds.get(k).copy();
+        }
+        return f;
+    }
+
     /** Adds a record to the fold of its ordinal. Modifies one fold; see {@link Moments#add}. */
     public void add(double[] z, double weight, long eventTimeMs, long ordinal) {
         folds[FoldAssignment.fold(ordinal, folds.length)].add(z, weight, eventTimeMs);

@@ -9,31 +9,52 @@ import java.io.IOException;
  * the announced one becomes a candidate; the candidate is announced once it has been selected
  * at {@code persistence} consecutive refits (1 announces every change at once). Selecting the
  * announced set again, or a different set, resets the count. Mutable; part of a key's
- * snapshot so the rule survives restarts.
+ * snapshot so the rule survives restarts. The announced set starts empty, so a key's first
+ * non-empty selection is announced as features entering.
  */
 final class AlertTracker {
 
+    /** An announcement: the set announced before, and when the new set was first seen. */
+    static final class Announcement {
+        final ActiveSet before;
+        final long beforeVersion;
+        final long firstSeenVersion;
+        final int heldRefits;
+
+        private Announcement(ActiveSet before, long beforeVersion, long firstSeenVersion, int heldRefits) {
+            this.before = before;
+            this.beforeVersion = beforeVersion;
+            this.firstSeenVersion = firstSeenVersion;
+            this.heldRefits = heldRefits;
+        }
+    }
+
     private ActiveSet announced;
+    private long announcedVersion;
     private ActiveSet candidate;
+    private long candidateSince;
     private int held;
 
     AlertTracker() {
-        this(ActiveSet.empty(), ActiveSet.empty(), 0);
+        this(ActiveSet.empty(), 0, ActiveSet.empty(), 0, 0);
     }
 
-    private AlertTracker(ActiveSet announced, ActiveSet candidate, int held) {
+    private AlertTracker(ActiveSet announced, long announcedVersion, ActiveSet candidate, long candidateSince,
+                         int held) {
         this.announced = announced;
+        this.announcedVersion = announcedVersion;
         this.candidate = candidate;
+        this.candidateSince = candidateSince;
         this.held = held;
     }
 
     /**
-     * Feeds the set selected at one refit. Returns the previously announced set when
-     * {@code selected} is now announced, or null when nothing is announced.
+     * Feeds the set selected at the refit that produced {@code version}. Returns the
+     * announcement when {@code selected} is announced now, or null.
      *
      * @throws IllegalArgumentException when {@code persistence < 1}
      */
-    ActiveSet offer(ActiveSet selected, int persistence) {
+    Announcement offer(ActiveSet selected, long version, int persistence) {
         if (persistence < 1) {
             throw new IllegalArgumentException("persistence must be >= 1, was " + persistence);
         }
@@ -46,39 +67,41 @@ final class AlertTracker {
             held++;
         } else {
             candidate = selected;
+            candidateSince = version;
             held = 1;
         }
         if (held < persistence) {
             return null;
         }
-        ActiveSet before = announced;
+        Announcement a = new Announcement(announced, announcedVersion, candidateSince, held);
         announced = selected;
+        announcedVersion = version;
         candidate = ActiveSet.empty();
         held = 0;
-        return before;
+        return a;
     }
 
     ActiveSet announced() {
         return announced;
     }
 
-    AlertTracker copy() {
-        return new AlertTracker(announced, candidate, held);
-    }
-
     void write(DataOutput out) throws IOException {
         announced.write(out);
+        out.writeLong(announcedVersion);
         candidate.write(out);
+        out.writeLong(candidateSince);
         out.writeInt(held);
     }
 
     static AlertTracker read(DataInput in) throws IOException {
         ActiveSet a = ActiveSet.read(in);
+        long av = in.readLong();
         ActiveSet c = ActiveSet.read(in);
+        long cs = in.readLong();
         int h = in.readInt();
-        if (h < 0) {
-            throw new IOException("negative persistence count " + h);
+        if (h < 0 || av < 0 || cs < 0) {
+            throw new IOException("corrupt alert state: held=" + h + ", versions " + av + ", " + cs);
         }
-        return new AlertTracker(a, c, h);
+        return new AlertTracker(a, av, c, cs, h);
     }
 }

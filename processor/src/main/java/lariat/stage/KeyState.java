@@ -1,6 +1,8 @@
 package lariat.stage;
 
 import lariat.moments.MomentStream;
+import lariat.moments.Moments;
+import lariat.select.FoldMoments;
 
 import java.io.ByteArrayInputStream;
 import java.io.ByteArrayOutputStream;
@@ -8,7 +10,9 @@ import java.io.DataInputStream;
 import java.io.DataOutputStream;
 import java.io.IOException;
 import java.io.UncheckedIOException;
+import java.util.ArrayList;
 import java.util.Arrays;
+import java.util.List;
 
 /**
  * Everything the stage keeps for one model key: its moments (and fold moments when
@@ -17,8 +21,8 @@ import java.util.Arrays;
  * loop thread. {@link #toBytes()} is the snapshot payload and {@link #fromBytes} its inverse,
  * so a restarted stage continues exactly where the last committed transaction left it.
  *
- * <p>Fold assignment: the record with 0-based accepted index {@code n} of this key goes to fold
- * {@link FoldAssignment#foldOf(long, int)}, a stable hash of {@code n}; no random state.
+ * <p>Fold assignment: the record with 0-based accepted index {@code n} of this key goes to the fold
+ * {@link lariat.select.FoldAssignment} gives {@code n}, a stable hash; no random state.
  */
 final class KeyState {
 
@@ -28,7 +32,7 @@ final class KeyState {
     private final int partition;
     private final String[] channels;
     private final MomentStream all;
-    private final MomentStream[] folds;
+    private final FoldMoments folds;
     private long count;
     private long nextVersion;
     private long countAtRefit;
@@ -41,7 +45,7 @@ final class KeyState {
     private int chunkCount;
     private boolean dirty;
 
-    private KeyState(String modelKey, int partition, String[] channels, MomentStream all, MomentStream[] folds,
+    private KeyState(String modelKey, int partition, String[] channels, MomentStream all, FoldMoments folds,
                      AlertTracker alerts) {
         this.modelKey = modelKey;
         this.partition = partition;
@@ -57,13 +61,13 @@ final class KeyState {
         this.published = ActiveSet.empty();
     }
 
-    /** A fresh state for a key first seen on {@code partition} with these channel names (target last). */
+    /**
+     * A fresh state for a key first seen on {@code partition} with these channel names (target
+     * last); {@code folds} is 0 for none or the cross-validation fold count.
+     */
     static KeyState create(String modelKey, int partition, String[] channels, int blockSize, double halfLifeMs,
                            int folds) {
-        MomentStream[] f = new MomentStream[folds];
-        for (int i = 0; i < folds; i++) {
-            f[i] = new MomentStream(channels.length, blockSize, halfLifeMs);
-        }
+        FoldMoments f = folds == 0 ? null : new FoldMoments(channels.length, folds);
         return new KeyState(modelKey, partition, channels.clone(),
                 new MomentStream(channels.length, blockSize, halfLifeMs), f, new AlertTracker());
     }
@@ -71,8 +75,8 @@ final class KeyState {
     /** Adds one accepted record; {@code z} is features then target, already validated. */
     void add(double[] z, double weight, long eventTimeMs, long offset) {
         all.add(z, weight, eventTimeMs);
-        if (folds.length > 0) {
-            folds[FoldAssignment.foldOf(count, folds.length)].add(z, weight, eventTimeMs);
+        if (folds != null) {
+            folds.add(z, weight, eventTimeMs, count);
         }
         count++;
         minEventTime = Math.min(minEventTime, eventTimeMs);
@@ -133,8 +137,8 @@ final class KeyState {
         return all;
     }
 
-    /** The fold streams; the array is live, callers must not modify it. */
-    MomentStream[] folds() {
+    /** The fold moments (live), or null when cross-validation is off. */
+    FoldMoments folds() {
         return folds;
     }
 
@@ -208,8 +212,9 @@ final class KeyState {
             published.write(out);
             alerts.write(out);
             writeBlob(out, all.toBytes());
-            out.writeInt(folds.length);
-            for (MomentStream f : folds) {
+            List<Moments> fl = folds == null ? List.of() : folds.foldList();
+            out.writeInt(fl.size());
+            for (Moments f : fl) {
                 writeBlob(out, f.toBytes());
             }
         } catch (IOException e) {
@@ -247,13 +252,14 @@ final class KeyState {
             AlertTracker alerts = AlertTracker.read(in);
             MomentStream all = MomentStream.fromBytes(readBlob(in));
             int nf = in.readInt();
-            if (nf < 0 || nf > 1000) {
+            if (nf < 0 || nf == 1 || nf > 1000) {
                 throw new IOException("fold count out of range: " + nf);
             }
-            MomentStream[] folds = new MomentStream[nf];
+            List<Moments> fl = new ArrayList<>(nf);
             for (int i = 0; i < nf; i++) {
-                folds[i] = MomentStream.fromBytes(readBlob(in));
+                fl.add(Moments.fromBytes(readBlob(in)));
             }
+            FoldMoments folds = nf == 0 ? null : FoldMoments.of(fl);
             KeyState s = new KeyState(key, partition, channels, all, folds, alerts);
             s.count = scalars[0];
             s.nextVersion = scalars[1];
