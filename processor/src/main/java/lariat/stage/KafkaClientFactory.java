@@ -13,30 +13,17 @@ import org.apache.kafka.common.serialization.ByteArraySerializer;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
 
-import java.util.HashMap;
 import java.util.Map;
-import java.util.Set;
 
 /**
  * Real Kafka clients from the pass-through client properties, with the settings exactly-once
- * needs forced on top (a user value that conflicts is replaced and logged).
+ * needs forced on top (a user value that conflicts is replaced and logged): read_committed,
+ * manual commits, the group id, transactional id {@code stage.id-stage.instance}, idempotence,
+ * {@code acks=all}, byte-array (de)serializers.
  */
 public final class KafkaClientFactory implements ClientFactory {
 
     private static final Logger LOG = LoggerFactory.getLogger(KafkaClientFactory.class);
-
-    private static final Set<String> CONSUMER_ONLY = Set.of(ConsumerConfig.MAX_POLL_RECORDS_CONFIG,
-            ConsumerConfig.FETCH_MIN_BYTES_CONFIG, ConsumerConfig.FETCH_MAX_WAIT_MS_CONFIG,
-            ConsumerConfig.MAX_POLL_INTERVAL_MS_CONFIG, ConsumerConfig.SESSION_TIMEOUT_MS_CONFIG,
-            ConsumerConfig.HEARTBEAT_INTERVAL_MS_CONFIG, ConsumerConfig.MAX_PARTITION_FETCH_BYTES_CONFIG,
-            ConsumerConfig.FETCH_MAX_BYTES_CONFIG, ConsumerConfig.GROUP_PROTOCOL_CONFIG,
-            ConsumerConfig.PARTITION_ASSIGNMENT_STRATEGY_CONFIG, ConsumerConfig.AUTO_OFFSET_RESET_CONFIG,
-            ConsumerConfig.GROUP_INSTANCE_ID_CONFIG);
-    private static final Set<String> PRODUCER_ONLY = Set.of(ProducerConfig.LINGER_MS_CONFIG,
-            ProducerConfig.BATCH_SIZE_CONFIG, ProducerConfig.COMPRESSION_TYPE_CONFIG,
-            ProducerConfig.TRANSACTION_TIMEOUT_CONFIG, ProducerConfig.DELIVERY_TIMEOUT_MS_CONFIG,
-            ProducerConfig.MAX_REQUEST_SIZE_CONFIG, ProducerConfig.BUFFER_MEMORY_CONFIG,
-            ProducerConfig.MAX_BLOCK_MS_CONFIG);
 
     private final StageSettings s;
 
@@ -46,9 +33,9 @@ public final class KafkaClientFactory implements ClientFactory {
 
     @Override
     public Consumer<byte[], byte[]> groupConsumer() {
-        Map<String, Object> p = common(PRODUCER_ONLY);
+        Map<String, Object> p = consumer();
         p.putIfAbsent(ConsumerConfig.AUTO_OFFSET_RESET_CONFIG, "earliest");
-        force(p, ConsumerConfig.GROUP_ID_CONFIG, s.stageId());
+        force(p, ConsumerConfig.GROUP_ID_CONFIG, s.groupId());
         force(p, ConsumerConfig.ISOLATION_LEVEL_CONFIG, "read_committed");
         force(p, ConsumerConfig.ENABLE_AUTO_COMMIT_CONFIG, "false");
         p.put(ConsumerConfig.CLIENT_ID_CONFIG, s.transactionalId() + "-consumer");
@@ -57,7 +44,7 @@ public final class KafkaClientFactory implements ClientFactory {
 
     @Override
     public Consumer<byte[], byte[]> restoreConsumer() {
-        Map<String, Object> p = common(PRODUCER_ONLY);
+        Map<String, Object> p = consumer();
         p.remove(ConsumerConfig.GROUP_ID_CONFIG);
         p.remove(ConsumerConfig.GROUP_INSTANCE_ID_CONFIG);
         p.remove(ConsumerConfig.GROUP_PROTOCOL_CONFIG);
@@ -71,7 +58,9 @@ public final class KafkaClientFactory implements ClientFactory {
 
     @Override
     public Producer<byte[], byte[]> producer() {
-        Map<String, Object> p = common(CONSUMER_ONLY);
+        Map<String, Object> p = s.producerProperties();
+        p.remove(ProducerConfig.KEY_SERIALIZER_CLASS_CONFIG);
+        p.remove(ProducerConfig.VALUE_SERIALIZER_CLASS_CONFIG);
         force(p, ProducerConfig.TRANSACTIONAL_ID_CONFIG, s.transactionalId());
         force(p, ProducerConfig.ENABLE_IDEMPOTENCE_CONFIG, "true");
         force(p, ProducerConfig.ACKS_CONFIG, "all");
@@ -83,23 +72,15 @@ public final class KafkaClientFactory implements ClientFactory {
 
     @Override
     public Admin admin() {
-        Map<String, Object> p = new HashMap<>();
-        for (Map.Entry<String, Object> e : s.clientProperties().entrySet()) {
-            if (AdminClientConfig.configNames().contains(e.getKey())) {
-                p.put(e.getKey(), e.getValue());
-            }
-        }
+        Map<String, Object> p = s.adminProperties();
         p.put(AdminClientConfig.CLIENT_ID_CONFIG, s.transactionalId() + "-admin");
         return Admin.create(p);
     }
 
-    private Map<String, Object> common(Set<String> drop) {
-        Map<String, Object> p = new HashMap<>(s.clientProperties());
-        p.keySet().removeAll(drop);
+    private Map<String, Object> consumer() {
+        Map<String, Object> p = s.consumerProperties();
         p.remove(ConsumerConfig.KEY_DESERIALIZER_CLASS_CONFIG);
         p.remove(ConsumerConfig.VALUE_DESERIALIZER_CLASS_CONFIG);
-        p.remove(ProducerConfig.KEY_SERIALIZER_CLASS_CONFIG);
-        p.remove(ProducerConfig.VALUE_SERIALIZER_CLASS_CONFIG);
         return p;
     }
 

@@ -1,5 +1,11 @@
 package lariat.stage;
 
+import lariat.codec.ChannelLayout;
+import lariat.codec.Decoded;
+import lariat.codec.KeyLayouts;
+import lariat.codec.Reading;
+import lariat.codec.Rejection;
+import lariat.codec.Skipped;
 import org.apache.kafka.clients.consumer.Consumer;
 import org.apache.kafka.clients.consumer.ConsumerRebalanceListener;
 import org.apache.kafka.clients.consumer.ConsumerRecord;
@@ -59,12 +65,15 @@ public final class Stage implements AutoCloseable {
     private final StageMetrics metrics;
     private final PartitionStates states = new PartitionStates();
     private final Map<Integer, PartitionWork> work = new LinkedHashMap<>();
+    private final Map<Integer, KeyLayouts> layouts = new HashMap<>();
+    private final String targetName;
     private final Set<TopicPartition> assigned = new HashSet<>();
     private final CountDownLatch stopped = new CountDownLatch(1);
     private volatile boolean stopping;
     private volatile boolean live;
     private volatile boolean ready;
     private boolean inTransaction;
+    private volatile int metricsPort = -1;
     private Consumer<byte[], byte[]> consumer;
     private Consumer<byte[], byte[]> restoreConsumer;
     private Producer<byte[], byte[]> producer;
@@ -76,9 +85,10 @@ public final class Stage implements AutoCloseable {
         final List<ProducerRecord<byte[], byte[]>> deadLetters = new ArrayList<>();
     }
 
-    Stage(StageSettings settings, InputDecoder decoder, Refitter refitter, ClientFactory clients,
+    Stage(StageSettings settings, String targetName, InputDecoder decoder, Refitter refitter, ClientFactory clients,
           StageMetrics metrics) {
         this.s = settings;
+        this.targetName = targetName;
         this.decoder = decoder;
         this.refitter = refitter;
         this.clients = clients;
@@ -95,6 +105,16 @@ public final class Stage implements AutoCloseable {
         return ready;
     }
 
+    /** Longest wait for the clients to close on shutdown, in ms. */
+    public long closeTimeoutMs() {
+        return s.closeTimeoutMs();
+    }
+
+    /** The bound metrics port, or -1 when there is no endpoint (yet). */
+    public int metricsPort() {
+        return metricsPort;
+    }
+
     public StageMetrics metrics() {
         return metrics;
     }
@@ -107,7 +127,17 @@ public final class Stage implements AutoCloseable {
      */
     public void run() throws InterruptedException {
         live = true;
+        MetricsServer server = null;
         try {
+            if (s.metricsPort() >= 0) {
+                try {
+                    server = MetricsServer.start(s.metricsPort(), metrics, this::live, this::ready);
+                    metricsPort = server.port();
+                    LOG.info("metrics on port {}", metricsPort);
+                } catch (IOException e) {
+                    throw new IllegalStateException("metrics.port " + s.metricsPort() + " cannot be bound: " + e, e);
+                }
+            }
             try (var admin = clients.admin()) {
                 new TopicSetup(admin, s).ensure();
             }
@@ -119,6 +149,9 @@ public final class Stage implements AutoCloseable {
             closeClients(Duration.ofMillis(s.closeTimeoutMs()));
             live = false;
             ready = false;
+            if (server != null) {
+                server.close();
+            }
             stopped.countDown();
         }
     }
@@ -188,17 +221,19 @@ public final class Stage implements AutoCloseable {
         metrics.recordIn();
         PartitionWork w = work.computeIfAbsent(r.partition(), p -> new PartitionWork());
         w.nextOffset = r.offset() + 1;
-        Decoded d = decoder.decode(r.key(), r.value(), r.timestamp());
-        switch (d.kind()) {
-            case SKIPPED:
-                return;
-            case REJECTED:
-                reject(w, r, d.reason(), d.detail(), d.exceptionClass());
-                return;
-            default:
-                break;
+        KeyLayouts partitionLayouts = layouts.computeIfAbsent(r.partition(), p -> KeyLayouts.create());
+        Decoded d = decoder.decode(r.key(), r.value(), r.timestamp(), partitionLayouts);
+        if (d instanceof Skipped) {
+            metrics.skipped();
+            return;
         }
-        String key = d.modelKey();
+        if (d instanceof Rejection) {
+            Rejection x = (Rejection) d;
+            reject(w, r, x.reason().name(), x.detail(), x.exceptionClass().orElse(null));
+            return;
+        }
+        Reading reading = (Reading) d;
+        String key = reading.key();
         int owner = states.ownerOf(key);
         if (owner >= 0 && owner != r.partition()) {
             metrics.keyOnTwoPartitions();
@@ -208,25 +243,25 @@ public final class Stage implements AutoCloseable {
             return;
         }
         KeyState state = owner >= 0 ? states.get(key) : null;
-        if (state != null && state.width() != d.zView().length) {
-            reject(w, r, DeadLetters.WRONG_WIDTH, "key has width " + state.width() + ", record has "
-                    + d.zView().length, null);
+        double[] z = reading.z();
+        if (state != null && state.width() != z.length) {
+            reject(w, r, DeadLetters.WRONG_WIDTH, "key has width " + state.width() + ", record has " + z.length,
+                    null);
             return;
         }
-        if (state == null) {
-            state = KeyState.create(key, r.partition(), d.channelsView(), s.blockSize(), s.halfLifeMs(),
-                    s.cvFolds());
-            addOrReject(w, r, state, d, true);
-        } else {
-            addOrReject(w, r, state, d, false);
+        boolean fresh = state == null;
+        if (fresh) {
+            List<String> names = new ArrayList<>(reading.channels());
+            names.add(targetName);
+            state = KeyState.create(key, r.partition(), names.toArray(new String[0]), s.blockSize(),
+                    s.halfLifeMs(), s.cvFolds());
         }
-    }
-
-    private void addOrReject(PartitionWork w, ConsumerRecord<byte[], byte[]> r, KeyState state, Decoded d,
-                             boolean fresh) {
         try {
-            state.add(d.zView(), d.weight(), d.eventTimeMs(), r.offset());
+            state.add(z, reading.weight(), reading.eventTimeMs(), r.offset());
         } catch (IllegalArgumentException e) {
+            if (fresh) {
+                partitionLayouts.remove(key);
+            }
             reject(w, r, DeadLetters.NON_FINITE, e.getMessage(), e.getClass().getName());
             return;
         }
@@ -367,6 +402,7 @@ public final class Stage implements AutoCloseable {
         metrics.fatalRecovery();
         work.clear();
         states.clear();
+        layouts.clear();
         assigned.clear();
         ready = false;
         closeClients(Duration.ofMillis(s.closeTimeoutMs()));
@@ -429,6 +465,7 @@ public final class Stage implements AutoCloseable {
         for (TopicPartition tp : partitions) {
             states.drop(tp.partition());
             work.remove(tp.partition());
+            layouts.remove(tp.partition());
             SnapshotReader.Partition snap = reader.read(new TopicPartition(s.snapshotTopic(), tp.partition()));
             for (Map.Entry<String, SnapshotReader.Restored> e : snap.states.entrySet()) {
                 install(tp, e.getKey(), e.getValue());
@@ -462,8 +499,11 @@ public final class Stage implements AutoCloseable {
                 metrics.keyOnTwoPartitions();
                 return;
             }
+            String[] ch = k.channels();
+            layouts.computeIfAbsent(tp.partition(), p -> KeyLayouts.create())
+                    .put(key, ChannelLayout.of(List.of(ch).subList(0, ch.length - 1)));
             states.put(k);
-        } catch (IOException e) {
+        } catch (IOException | IllegalArgumentException e) {
             metrics.snapshotIncomplete();
             LOG.error("snapshot of key '{}' in partition {} cannot be decoded; not applied: {}", key,
                     tp.partition(), e.toString());
@@ -493,6 +533,7 @@ public final class Stage implements AutoCloseable {
             for (TopicPartition tp : partitions) {
                 states.drop(tp.partition());
                 work.remove(tp.partition());
+                layouts.remove(tp.partition());
                 assigned.remove(tp);
             }
             metrics.keys(states.size());

@@ -17,6 +17,7 @@ public final class StageMetrics {
     private final LongAdder recordsIn = new LongAdder();
     private final LongAdder recordsAccepted = new LongAdder();
     private final Map<String, LongAdder> rejectedByReason = new ConcurrentHashMap<>();
+    private final LongAdder skipped = new LongAdder();
     private final LongAdder refits = new LongAdder();
     private final DoubleAdder refitSeconds = new DoubleAdder();
     private final LongAdder refitsFailed = new LongAdder();
@@ -46,6 +47,11 @@ public final class StageMetrics {
     /** Counts one dead-lettered record under its reason. */
     public void rejected(String reason) {
         rejectedByReason.computeIfAbsent(reason, r -> new LongAdder()).increment();
+    }
+
+    /** Counts one record skipped by the missing-channel policy. */
+    public void skipped() {
+        skipped.increment();
     }
 
     /** Counts one refit that took {@code seconds}. */
@@ -137,6 +143,8 @@ public final class StageMetrics {
             out.append("lariat_records_rejected_total{reason=\"").append(escape(e.getKey())).append("\"} ")
                     .append(e.getValue().sum()).append('\n');
         }
+        counter(out, "lariat_records_skipped_total", "Input records skipped by the missing-channel policy.",
+                skipped.sum());
         counter(out, "lariat_refits_total", "Path refits computed.", refits.sum());
         counter(out, "lariat_refit_seconds_total", "Wall seconds spent in refits.", refitSeconds.sum());
         counter(out, "lariat_refits_failed_total", "Refits that failed; the key published nothing then.",

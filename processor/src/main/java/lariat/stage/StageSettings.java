@@ -10,7 +10,9 @@ import java.util.Map;
  */
 public final class StageSettings {
 
-    private final Map<String, Object> clientProperties;
+    private final Map<String, Object> producerProperties;
+    private final Map<String, Object> consumerProperties;
+    private final Map<String, Object> adminProperties;
     private final String inputTopic;
     private final String modelTopic;
     private final String alertTopic;
@@ -18,6 +20,7 @@ public final class StageSettings {
     private final String snapshotTopic;
     private final String stageId;
     private final String instanceId;
+    private final String groupId;
     private final long cycleIntervalMs;
     private final long refitEveryRecords;
     private final long refitEveryEventMs;
@@ -34,7 +37,9 @@ public final class StageSettings {
     private final int cvFolds;
 
     private StageSettings(Builder b) {
-        this.clientProperties = Map.copyOf(b.clientProperties);
+        this.producerProperties = Map.copyOf(b.producerProperties);
+        this.consumerProperties = Map.copyOf(b.consumerProperties);
+        this.adminProperties = Map.copyOf(b.adminProperties);
         this.inputTopic = require("input.topic", b.inputTopic);
         this.modelTopic = require("model.topic", b.modelTopic);
         this.alertTopic = require("alert.topic", b.alertTopic);
@@ -42,6 +47,7 @@ public final class StageSettings {
         this.snapshotTopic = require("snapshot.topic", b.snapshotTopic);
         this.stageId = require("stage.id", b.stageId);
         this.instanceId = require("stage.instance", b.instanceId);
+        this.groupId = b.groupId == null || b.groupId.isEmpty() ? stageId : b.groupId;
         this.cycleIntervalMs = atLeast("cycle.interval.ms", b.cycleIntervalMs, 1);
         this.refitEveryRecords = atLeast("refit.every.records", b.refitEveryRecords, 0);
         this.refitEveryEventMs = atLeast("refit.every.event.ms", b.refitEveryEventMs, 0);
@@ -99,9 +105,19 @@ public final class StageSettings {
         return new Builder();
     }
 
-    /** Properties given to every Kafka client (bootstrap servers, security). */
-    public Map<String, Object> clientProperties() {
-        return new LinkedHashMap<>(clientProperties);
+    /** Pass-through properties of the transactional producer (a new mutable map). */
+    public Map<String, Object> producerProperties() {
+        return new LinkedHashMap<>(producerProperties);
+    }
+
+    /** Pass-through properties of the consumers (a new mutable map). */
+    public Map<String, Object> consumerProperties() {
+        return new LinkedHashMap<>(consumerProperties);
+    }
+
+    /** Pass-through properties of the admin client (a new mutable map). */
+    public Map<String, Object> adminProperties() {
+        return new LinkedHashMap<>(adminProperties);
     }
 
     public String inputTopic() {
@@ -124,9 +140,13 @@ public final class StageSettings {
         return snapshotTopic;
     }
 
-    /** The consumer group id. */
     public String stageId() {
         return stageId;
+    }
+
+    /** The consumer group id; {@code stage.id} unless set. */
+    public String groupId() {
+        return groupId;
     }
 
     public String instanceId() {
@@ -201,7 +221,9 @@ public final class StageSettings {
 
     /** Mutable builder; defaults are those of the configuration reference. */
     public static final class Builder {
-        private final Map<String, Object> clientProperties = new LinkedHashMap<>();
+        private final Map<String, Object> producerProperties = new LinkedHashMap<>();
+        private final Map<String, Object> consumerProperties = new LinkedHashMap<>();
+        private final Map<String, Object> adminProperties = new LinkedHashMap<>();
         private String inputTopic;
         private String modelTopic;
         private String alertTopic;
@@ -209,6 +231,7 @@ public final class StageSettings {
         private String snapshotTopic;
         private String stageId = "lariat";
         private String instanceId = "0";
+        private String groupId;
         private long cycleIntervalMs = 1000;
         private long refitEveryRecords = 1000;
         private long refitEveryEventMs = 0;
@@ -227,13 +250,19 @@ public final class StageSettings {
         private Builder() {
         }
 
+        /** Sets a property of every client (e.g. {@code bootstrap.servers}). */
         public Builder clientProperty(String name, Object value) {
-            clientProperties.put(name, value);
+            producerProperties.put(name, value);
+            consumerProperties.put(name, value);
+            adminProperties.put(name, value);
             return this;
         }
 
-        public Builder clientProperties(Map<String, ?> props) {
-            clientProperties.putAll(props);
+        /** Adds producer, consumer and admin pass-through properties. */
+        public Builder clientProperties(Map<String, ?> producer, Map<String, ?> consumer, Map<String, ?> admin) {
+            producerProperties.putAll(producer);
+            consumerProperties.putAll(consumer);
+            adminProperties.putAll(admin);
             return this;
         }
 
@@ -254,6 +283,11 @@ public final class StageSettings {
 
         public Builder instanceId(String v) {
             this.instanceId = v;
+            return this;
+        }
+
+        public Builder groupId(String v) {
+            this.groupId = v;
             return this;
         }
 
