@@ -108,8 +108,6 @@ class StageEndToEndIT {
         List<Sent> good = new ArrayList<>();
         Map<String, String> badReasons = new LinkedHashMap<>();
         Map<String, Long> badOffsets = new HashMap<>();
-        produce(input, good, badOffsets, badReasons);
-
         Stage stage = StageAssembly.create(StageConfig.of(props), Path.of(""));
         AtomicReference<Throwable> failure = new AtomicReference<>();
         Thread loop = new Thread(() -> {
@@ -122,7 +120,13 @@ class StageEndToEndIT {
             }
         }, "stage-under-test");
         loop.start();
-        awaitConsumed(props.get("stage.id"), input, failure);
+        Random rnd = new Random(SEED);
+        int bursts = 3;
+        for (int b = 0; b < bursts; b++) {
+            produce(input, good, badOffsets, badReasons, b * RECORDS_PER_STATION / bursts,
+                    (b + 1) * RECORDS_PER_STATION / bursts, rnd);
+            awaitConsumed(props.get("stage.id"), input, failure);
+        }
         String metrics = httpGet(metricsPort, "/metrics");
         int ready = httpStatus(metricsPort, "/readyz");
         stage.shutdown();
@@ -137,13 +141,62 @@ class StageEndToEndIT {
         assertEquals(stations, byKey.keySet(), "every station published");
         for (Map.Entry<String, List<ModelVersion>> e : byKey.entrySet()) {
             List<ModelVersion> versions = e.getValue();
-            assertTrue(versions.size() >= 2, e.getKey() + " published " + versions.size() + " versions");
+            assertTrue(versions.size() >= bursts, e.getKey() + " published " + versions.size() + " versions");
             for (int i = 0; i < versions.size(); i++) {
                 assertEquals(i + 1, versions.get(i).getVersion(), e.getKey() + " versions contiguous from 1");
                 assertEqualsOffline(versions.get(i), good);
             }
         }
         assertDeadLetters(deadLetters, input, badOffsets, badReasons);
+    }
+
+    @Test
+    void run_restartedWithSameInstance_versionsContinueAndEqualOfflineFit() throws Exception {
+        String input = TestKafka.uniqueTopic("restart-in");
+        String models = TestKafka.uniqueTopic("restart-models");
+        String deadLetters = TestKafka.uniqueTopic("restart-dlq");
+        TestKafka.createTopic(input, 3, Map.of());
+        Map<String, String> props = config(input, models, deadLetters, 0);
+        List<Sent> good = new ArrayList<>();
+        Map<String, Long> badOffsets = new HashMap<>();
+        Map<String, String> badReasons = new LinkedHashMap<>();
+        Random rnd = new Random(SEED + 1);
+        produce(input, good, badOffsets, badReasons, 0, RECORDS_PER_STATION / 2, rnd);
+        runUntilConsumed(props, input);
+        Map<String, Long> lastBefore = new HashMap<>();
+        readModels(models).forEach((k, v) -> lastBefore.put(k, v.get(v.size() - 1).getVersion()));
+        produce(input, good, badOffsets, badReasons, RECORDS_PER_STATION / 2, RECORDS_PER_STATION, rnd);
+        runUntilConsumed(props, input);
+
+        Map<String, List<ModelVersion>> byKey = readModels(models);
+        assertEquals(lastBefore.keySet(), byKey.keySet(), "stations before and after the restart");
+        for (Map.Entry<String, List<ModelVersion>> e : byKey.entrySet()) {
+            List<ModelVersion> versions = e.getValue();
+            assertTrue(versions.size() > lastBefore.get(e.getKey()), e.getKey() + " published after the restart");
+            for (int i = 0; i < versions.size(); i++) {
+                assertEquals(i + 1, versions.get(i).getVersion(), e.getKey() + " versions contiguous across restart");
+                assertEqualsOffline(versions.get(i), good);
+            }
+        }
+        assertDeadLetters(deadLetters, input, badOffsets, badReasons);
+    }
+
+    private static void runUntilConsumed(Map<String, String> props, String input) throws Exception {
+        Stage stage = StageAssembly.create(StageConfig.of(props), Path.of(""));
+        AtomicReference<Throwable> failure = new AtomicReference<>();
+        Thread loop = new Thread(() -> {
+            try {
+                stage.run();
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+            } catch (RuntimeException e) {
+                failure.set(e);
+            }
+        }, "stage-under-test");
+        loop.start();
+        awaitConsumed(props.get("stage.id"), input, failure);
+        stage.shutdown();
+        assertTrue(stage.awaitStopped(30_000), "stage did not stop within 30 s");
     }
 
     @Test
@@ -200,13 +253,12 @@ class StageEndToEndIT {
     }
 
     private static void produce(String input, List<Sent> good, Map<String, Long> badOffsets,
-                                Map<String, String> badReasons) throws Exception {
-        Random rnd = new Random(SEED);
+                                Map<String, String> badReasons, int from, int to, Random rnd) throws Exception {
         int stations = 4;
         long t0 = 1_700_000_000_000L;
         List<Object[]> pending = new ArrayList<>();
         try (KafkaProducer<byte[], byte[]> producer = new KafkaProducer<>(TestKafka.producerProperties())) {
-            for (int i = 0; i < RECORDS_PER_STATION; i++) {
+            for (int i = from; i < to; i++) {
                 for (int s = 0; s < stations; s++) {
                     String station = "north-0" + (s + 1);
                     double[] beta = coefficients(s);
