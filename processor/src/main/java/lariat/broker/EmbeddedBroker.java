@@ -6,6 +6,7 @@ import java.io.OutputStream;
 import java.io.PrintStream;
 import java.io.UncheckedIOException;
 import java.net.InetAddress;
+import java.net.InetSocketAddress;
 import java.net.ServerSocket;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
@@ -72,7 +73,7 @@ public final class EmbeddedBroker implements AutoCloseable {
         return builder().start();
     }
 
-    /** Returns a builder with free ports, a temporary data folder and a 60 s start timeout. */
+    /** Returns a builder with free ports, a temporary data folder and a 120 s start timeout. */
     public static Builder builder() {
         return new Builder();
     }
@@ -113,8 +114,8 @@ public final class EmbeddedBroker implements AutoCloseable {
      * Starts the node again on the same data folder and ports, stopping it first if it runs, and
      * returns once it answers clients.
      *
-     * @throws IllegalStateException if the broker is closed, or does not answer within the start
-     *                               timeout
+     * @throws IllegalStateException if the broker is closed, a port is taken, or the broker does
+     *                               not answer within the start timeout
      */
     public synchronized void restart() {
         if (closed) {
@@ -141,6 +142,8 @@ public final class EmbeddedBroker implements AutoCloseable {
     }
 
     private void launch() {
+        requireFree(clientPort, "client");
+        requireFree(controllerPort, "controller");
         long t0 = System.nanoTime();
         Path logDir = dataDir.resolve(LOG_DIR);
         Properties props = KraftNodeProperties.of(clientPort, controllerPort, logDir);
@@ -230,6 +233,17 @@ public final class EmbeddedBroker implements AutoCloseable {
         }
     }
 
+    /** Fails fast, before Kafka starts any thread, when another process holds the port. */
+    private static void requireFree(int port, String listener) {
+        try (ServerSocket socket = new ServerSocket()) {
+            socket.setReuseAddress(true);
+            socket.bind(new InetSocketAddress(InetAddress.getByName(KraftNodeProperties.HOST), port));
+        } catch (IOException e) {
+            throw new IllegalStateException("the " + listener + " port " + KraftNodeProperties.HOST + ":"
+                    + port + " is in use: " + e.getMessage(), e);
+        }
+    }
+
     private static void deleteTree(Path root) {
         if (!Files.exists(root)) {
             return;
@@ -247,7 +261,7 @@ public final class EmbeddedBroker implements AutoCloseable {
     public static final class Builder {
         private int port;
         private Path dataDir;
-        private Duration startTimeout = Duration.ofSeconds(60);
+        private Duration startTimeout = Duration.ofSeconds(120);
 
         private Builder() {
         }
@@ -295,7 +309,8 @@ public final class EmbeddedBroker implements AutoCloseable {
         /**
          * Starts the broker and returns once it answers clients.
          *
-         * @throws IllegalStateException if the broker does not answer within the start timeout
+         * @throws IllegalStateException if a port is taken, or the broker does not answer within
+         *                               the start timeout
          * @throws UncheckedIOException  if the data folder cannot be created or written
          */
         public EmbeddedBroker start() {

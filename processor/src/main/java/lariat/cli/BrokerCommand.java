@@ -9,6 +9,7 @@ import lariat.broker.EmbeddedBroker;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
+import picocli.CommandLine.ParameterException;
 import picocli.CommandLine.Spec;
 
 /** The {@code broker} command: runs a one-node Kafka broker in this process until stopped. */
@@ -39,11 +40,22 @@ public final class BrokerCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws InterruptedException {
-        EmbeddedBroker.Builder builder = EmbeddedBroker.builder().port(port);
-        if (dataDir != null) {
-            builder.dataDir(dataDir);
+        EmbeddedBroker.Builder builder = EmbeddedBroker.builder();
+        try {
+            builder.port(port);
+            if (dataDir != null) {
+                builder.dataDir(dataDir);
+            }
+        } catch (IllegalArgumentException e) {
+            throw new ParameterException(spec.commandLine(), e.getMessage(), e);
         }
-        EmbeddedBroker broker = builder.start();
+        EmbeddedBroker broker;
+        try {
+            broker = builder.start();
+        } catch (IllegalStateException e) {
+            spec.commandLine().getErr().println("lariat broker: " + e.getMessage());
+            return 1;
+        }
         CountDownLatch stopped = new CountDownLatch(1);
         Runtime.getRuntime().addShutdownHook(new Thread(() -> {
             broker.close();
