@@ -5,6 +5,7 @@ import picocli.CommandLine.Command;
 
 /** Entry point of the {@code lariat} command line. */
 @Command(name = "lariat", mixinStandardHelpOptions = true,
+        subcommands = {FitCommand.class},
         description = "Streaming lasso-path feature selection for Kafka pipelines.")
 public final class Main implements Runnable {
 
