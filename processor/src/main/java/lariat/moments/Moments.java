@@ -24,6 +24,14 @@ import org.ejml.dense.row.CommonOps_DDRM;
  *                           (an EJML inner product), then merged as above.
  * </pre>
  *
+ * <p>The mean is held as an unevaluated sum of two doubles, μ = μ_hi + μ_lo with μ_hi = fl(μ_hi + μ_lo),
+ * updated with the error-free TwoSum (O. Møller, "Quasi double-precision in floating point addition", BIT
+ * 5, 1965, 37–50; T. J. Dekker, "A floating-point technique for extending the available precision",
+ * Numerische Mathematik 18, 1971, 224–242). Then δ = (z − μ_hi) − μ_lo is accurate to the spread of the
+ * data rather than to the last place of |μ|, which the co-moment update needs when |μ| is large next to
+ * the spread: with a plain double mean, each rounding of μ to a unit in the last place of |μ| enters C to
+ * first order. {@link #mean(int)} returns μ_hi.
+ *
  * <p>Sources: D. H. D. West, "Updating mean and variance estimates: an improved method", Communications
  * of the ACM 22(9), 1979, 532–535. T. F. Chan, G. H. Golub, R. J. LeVeque, "Updating formulae and a
  * pairwise algorithm for computing sample variances", Stanford report STAN-CS-79-773, 1979; and
@@ -38,7 +46,8 @@ import org.ejml.dense.row.CommonOps_DDRM;
  *
  * <p>Canonical bytes ({@link #toBytes()}), big-endian: format version (1 byte, {@value #FORMAT_VERSION}),
  * width d (int), count (long), W (double), Σ w² (double), min event time (long), max event time (long),
- * μ (d doubles), the upper triangle of C row by row (d(d+1)/2 doubles). Signed zeros are written as +0.0.
+ * μ_hi (d doubles), μ_lo (d doubles), the upper triangle of C row by row (d(d+1)/2 doubles). Signed zeros
+ * are written as +0.0.
  * Equality and hash code are those of the canonical bytes. Not thread-safe.
  */
 public final class Moments {
@@ -56,12 +65,14 @@ public final class Moments {
     private double totalWeight;
     private double sumSquaredWeights;
     private final double[] mean;
+    private final double[] meanLow;
     private final double[] comoment;
     private long minTime = Long.MAX_VALUE;
     private long maxTime = Long.MIN_VALUE;
 
     private final double[] delta;
     private double[] blockMean;
+    private double[] blockMeanLow;
     private DMatrixRMaj centered;
     private DMatrixRMaj blockComoment;
 
@@ -76,6 +87,7 @@ public final class Moments {
         }
         this.d = width;
         this.mean = new double[width];
+        this.meanLow = new double[width];
         this.comoment = new double[width * width];
         this.delta = new double[width];
     }
@@ -100,12 +112,10 @@ public final class Moments {
         double ratio = weight / newWeight;
         double k = totalWeight * ratio;
         for (int i = 0; i < d; i++) {
-            delta[i] = z[i] - mean[i];
+            delta[i] = (z[i] - mean[i]) - meanLow[i];
         }
         requireFiniteUpdate(newWeight, newSquares, 1.0, ratio, k, "record");
-        for (int i = 0; i < d; i++) {
-            mean[i] += ratio * delta[i];
-        }
+        moveMean(ratio);
         for (int i = 0; i < d; i++) {
             double kd = k * delta[i];
             int row = i * d;
@@ -152,8 +162,8 @@ public final class Moments {
         if (other.d != d) {
             throw new IllegalArgumentException("other has width " + other.d + ", expected width " + d);
         }
-        mergeStats(other.count, other.totalWeight, other.sumSquaredWeights, other.mean, other.comoment,
-                other.minTime, other.maxTime, 1.0);
+        mergeStats(other.count, other.totalWeight, other.sumSquaredWeights, other.mean, other.meanLow,
+                other.comoment, other.minTime, other.maxTime, 1.0);
     }
 
     /** An independent deep copy (workspaces are not shared). */
@@ -218,13 +228,13 @@ public final class Moments {
         return totalWeight == 0.0 ? 0.0 : totalWeight / sumSquaredWeights * totalWeight;
     }
 
-    /** Weighted mean of column {@code i} (0 when W = 0). */
+    /** Weighted mean μ_hi of column {@code i} (0 when W = 0). */
     public double mean(int i) {
         checkIndex(i, "i");
         return mean[i];
     }
 
-    /** A copy of the mean vector. */
+    /** A copy of the mean vector (μ_hi). */
     public double[] means() {
         return mean.clone();
     }
@@ -253,7 +263,7 @@ public final class Moments {
 
     /** Length of the canonical bytes of moments of width {@code width}. */
     static int byteLength(int width) {
-        return HEADER_BYTES + 8 * width + 4 * width * (width + 1);
+        return HEADER_BYTES + 16 * width + 4 * width * (width + 1);
     }
 
     /** The canonical bytes described in the class comment; equal states give equal bytes. */
@@ -270,6 +280,9 @@ public final class Moments {
                 .putLong(minTime).putLong(maxTime);
         for (int i = 0; i < d; i++) {
             buf.putDouble(positiveZero(mean[i]));
+        }
+        for (int i = 0; i < d; i++) {
+            buf.putDouble(positiveZero(meanLow[i]));
         }
         for (int i = 0; i < d; i++) {
             for (int j = i; j < d; j++) {
@@ -332,6 +345,13 @@ public final class Moments {
             m.mean[i] = readValue(buf, "mean");
         }
         for (int i = 0; i < width; i++) {
+            m.meanLow[i] = readValue(buf, "meanLow");
+            if (m.mean[i] + m.meanLow[i] != m.mean[i]) {
+                throw new IllegalArgumentException("meanLow " + i + " is not below half a unit in the last place of mean: "
+                        + m.meanLow[i]);
+            }
+        }
+        for (int i = 0; i < width; i++) {
             for (int j = i; j < width; j++) {
                 m.comoment[i * width + j] = readValue(buf, "comoment");
             }
@@ -376,8 +396,8 @@ public final class Moments {
             }
         }
         if (totalWeight == 0.0) {
-            for (double v : mean) {
-                if (v != 0.0) {
+            for (int i = 0; i < d; i++) {
+                if (mean[i] != 0.0 || meanLow[i] != 0.0) {
                     throw new IllegalArgumentException("moments without weight must have zero means");
                 }
             }
@@ -415,6 +435,7 @@ public final class Moments {
         totalWeight = other.totalWeight;
         sumSquaredWeights = other.sumSquaredWeights;
         System.arraycopy(other.mean, 0, mean, 0, d);
+        System.arraycopy(other.meanLow, 0, meanLow, 0, d);
         System.arraycopy(other.comoment, 0, comoment, 0, comoment.length);
         minTime = other.minTime;
         maxTime = other.maxTime;
@@ -448,6 +469,7 @@ public final class Moments {
         }
         double[] c = blockComoment.data;
         Arrays.fill(blockMean, 0.0);
+        Arrays.fill(blockMeanLow, 0.0);
         if (blockWeight > 0.0 && blockSquares > 0.0) {
             blockMoments(rows, weights, n, blockWeight);
         } else {
@@ -455,19 +477,23 @@ public final class Moments {
             blockSquares = 0.0;
             Arrays.fill(c, 0.0);
         }
-        mergeStats(n, blockWeight, blockSquares, blockMean, c, blockMin, blockMax, stateFactor);
+        mergeStats(n, blockWeight, blockSquares, blockMean, blockMeanLow, c, blockMin, blockMax, stateFactor);
     }
 
     private void ensureBlockWorkspace(int n) {
         if (blockMean == null) {
             blockMean = new double[d];
+            blockMeanLow = new double[d];
             centered = new DMatrixRMaj(n, d);
             blockComoment = new DMatrixRMaj(d, d);
         }
         centered.reshape(n, d);
     }
 
-    /** Fills blockMean (corrected two-pass mean) and blockComoment (centered, exactly symmetric). */
+    /**
+     * Fills blockMean + blockMeanLow with the corrected two-pass mean m + Σ w (z − m) / W (Chan, Golub &amp;
+     * LeVeque 1983) as a TwoSum pair, and blockComoment with the centered co-moment, exactly symmetric.
+     */
     private void blockMoments(double[] rows, double[] weights, int n, double blockWeight) {
         for (int r = 0; r < n; r++) {
             double w = weights[r];
@@ -487,15 +513,18 @@ public final class Moments {
                 delta[c] += w * (rows[base + c] - blockMean[c]);
             }
         }
-        double[] x = centered.data;
         for (int c = 0; c < d; c++) {
-            blockMean[c] += delta[c] / blockWeight;
+            double correction = delta[c] / blockWeight;
+            double hi = blockMean[c] + correction;
+            blockMeanLow[c] = twoSumError(blockMean[c], correction, hi);
+            blockMean[c] = hi;
         }
+        double[] x = centered.data;
         for (int r = 0; r < n; r++) {
             double s = Math.sqrt(weights[r]);
             int base = r * d;
             for (int c = 0; c < d; c++) {
-                x[base + c] = s * (rows[base + c] - blockMean[c]);
+                x[base + c] = s * ((rows[base + c] - blockMean[c]) - blockMeanLow[c]);
             }
         }
         CommonOps_DDRM.multInner(centered, blockComoment);
@@ -504,11 +533,10 @@ public final class Moments {
 
     /**
      * Merges summary statistics B into this after scaling this state's weights by {@code stateFactor}.
-     * Checks finiteness of the result before writing anything. {@code mub} and {@code cb} may alias this
-     * object's own arrays.
+     * Checks finiteness of the result before writing anything. The arrays of B may alias this object's own.
      */
-    private void mergeStats(long n, double wb, double s2b, double[] mub, double[] cb, long minB, long maxB,
-            double stateFactor) {
+    private void mergeStats(long n, double wb, double s2b, double[] mub, double[] mubLow, double[] cb,
+            long minB, long maxB, double stateFactor) {
         double wa = totalWeight * stateFactor;
         double s2a = sumSquaredWeights * stateFactor * stateFactor;
         boolean aEmpty = wa == 0.0 || s2a == 0.0;
@@ -521,25 +549,26 @@ public final class Moments {
         } else if (aEmpty) {
             requireFiniteSummary(wb, s2b, mub, cb);
             System.arraycopy(mub, 0, mean, 0, d);
+            System.arraycopy(mubLow, 0, meanLow, 0, d);
             System.arraycopy(cb, 0, comoment, 0, comoment.length);
             totalWeight = wb;
             sumSquaredWeights = s2b;
         } else {
-            mergeWeighted(wa, s2a, wb, s2b, mub, cb, stateFactor);
+            mergeWeighted(wa, s2a, wb, s2b, mub, mubLow, cb, stateFactor);
         }
         count += n;
         minTime = Math.min(minTime, minB);
         maxTime = Math.max(maxTime, maxB);
     }
 
-    private void mergeWeighted(double wa, double s2a, double wb, double s2b, double[] mub, double[] cb,
-            double stateFactor) {
+    private void mergeWeighted(double wa, double s2a, double wb, double s2b, double[] mub, double[] mubLow,
+            double[] cb, double stateFactor) {
         double newWeight = wa + wb;
         double newSquares = s2a + s2b;
         double ratio = wb / newWeight;
         double k = wa * ratio;
         for (int i = 0; i < d; i++) {
-            delta[i] = mub[i] - mean[i];
+            delta[i] = (mub[i] - mean[i]) + (mubLow[i] - meanLow[i]);
         }
         for (int i = 0; i < d; i++) {
             if (!Double.isFinite(stateFactor * comoment[i * d + i] + cb[i * d + i])) {
@@ -547,9 +576,7 @@ public final class Moments {
             }
         }
         requireFiniteUpdate(newWeight, newSquares, stateFactor, ratio, k, "merge");
-        for (int i = 0; i < d; i++) {
-            mean[i] += ratio * delta[i];
-        }
+        moveMean(ratio);
         for (int i = 0; i < d; i++) {
             double kd = k * delta[i];
             int row = i * d;
@@ -580,6 +607,23 @@ public final class Moments {
         }
     }
 
+    /** μ ← μ + ratio·δ (δ in {@code delta}), keeping μ_hi + μ_lo an exact TwoSum pair. */
+    private void moveMean(double ratio) {
+        for (int i = 0; i < d; i++) {
+            double step = meanLow[i] + ratio * delta[i];
+            double hi = mean[i] + step;
+            meanLow[i] = twoSumError(mean[i], step, hi);
+            mean[i] = hi;
+        }
+    }
+
+    /** The rounding error a + b − s of s = fl(a + b), exactly (Møller 1965). */
+    private static double twoSumError(double a, double b, double s) {
+        double bVirtual = s - a;
+        double aVirtual = s - bVirtual;
+        return (a - aVirtual) + (b - bVirtual);
+    }
+
     private void requireFiniteSummary(double w, double s2, double[] mu, double[] c) {
         if (!Double.isFinite(w) || !Double.isFinite(s2)) {
             throw new IllegalArgumentException("merge overflows the total weight");
@@ -595,6 +639,7 @@ public final class Moments {
         totalWeight = 0.0;
         sumSquaredWeights = 0.0;
         Arrays.fill(mean, 0.0);
+        Arrays.fill(meanLow, 0.0);
         Arrays.fill(comoment, 0.0);
     }
 
