@@ -8,9 +8,15 @@ import lariat.path.LassoPath;
  * The model at one relative penalty r = λ/λmax on a path, by exact linear interpolation between the two
  * knots around λ = r·λmax (the lasso and LARS paths are piecewise linear in λ; Efron, Hastie, Johnstone &amp;
  * Tibshirani 2004, Annals of Statistics 32(2), Lemma 1 and Theorem 1). Below the last knot's penalty
- * the last knot is used: the path was stopped there, or ended at the least-squares fit. Immutable.
+ * the last knot is used: the path was stopped there, or ended at the least-squares fit. A penalty within
+ * {@value #KNOT_SNAP}·λmax of a knot's is that knot, so that r·λmax recomputed from a knot's own relative
+ * penalty gives the knot's coefficients (an entering column exactly zero), not a rounding residue.
+ * Immutable.
  */
 public final class PathPoint {
+
+    /** Relative distance (to λmax) within which a penalty is taken to be a knot's. */
+    public static final double KNOT_SNAP = 1e-12;
 
     private final double penalty;
     private final double relativePenalty;
@@ -35,6 +41,12 @@ public final class PathPoint {
         List<Knot> knots = path.knots();
         Knot last = knots.get(knots.size() - 1);
         double lambda = relativePenalty * path.lambdaMax();
+        for (int k = 0; k < knots.size(); k++) {
+            if (Math.abs(knots.get(k).penalty() - lambda) <= KNOT_SNAP * path.lambdaMax()) {
+                return new PathPoint(knots.get(k).penalty(), relativePenalty, knots.get(k).raw(),
+                        knots.get(k).standardized(), knots.get(k).intercept());
+            }
+        }
         if (lambda <= last.penalty()) {
             double rel = path.lambdaMax() > 0 ? last.penalty() / path.lambdaMax() : 0.0;
             return new PathPoint(last.penalty(), Math.max(rel, relativePenalty), last.raw(), last.standardized(),
