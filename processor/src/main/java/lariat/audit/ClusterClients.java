@@ -11,8 +11,15 @@ import org.apache.kafka.clients.producer.ProducerConfig;
 import org.apache.kafka.common.serialization.ByteArrayDeserializer;
 import org.apache.kafka.common.serialization.ByteArraySerializer;
 
+import java.io.IOException;
+import java.io.Reader;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
 import java.util.HashMap;
 import java.util.Map;
+import java.util.Properties;
+import java.util.Set;
 
 /**
  * The clients the audit commands use, from one map of Kafka client properties (bootstrap servers,
@@ -43,6 +50,32 @@ public final class ClusterClients {
                     + "properties file naming it");
         }
         return new ClusterClients(new HashMap<>(properties), clientId);
+    }
+
+    /**
+     * Client properties for the commands: those of {@code stageClients} (a stage configuration's
+     * pass-through client properties; may be empty), then the file {@code clientConfig} (Kafka
+     * client properties such as TLS and SASL settings; may be null), then {@code bootstrapServers}
+     * (may be null).
+     *
+     * @throws IOException when the file cannot be read
+     */
+    public static Map<String, Object> properties(Map<String, Object> stageClients, Path clientConfig,
+                                                 String bootstrapServers) throws IOException {
+        Map<String, Object> p = new HashMap<>(stageClients);
+        if (clientConfig != null) {
+            Properties file = new Properties();
+            try (Reader r = Files.newBufferedReader(clientConfig, StandardCharsets.UTF_8)) {
+                file.load(r);
+            }
+            for (String name : file.stringPropertyNames()) {
+                p.put(name, file.getProperty(name));
+            }
+        }
+        if (bootstrapServers != null) {
+            p.put(AdminClientConfig.BOOTSTRAP_SERVERS_CONFIG, bootstrapServers);
+        }
+        return p;
     }
 
     /** A read_committed, group-less consumer of raw bytes. */
@@ -81,7 +114,7 @@ public final class ClusterClients {
                 new ByteArraySerializer());
     }
 
-    private static Map<String, Object> only(Map<String, Object> p, java.util.Set<String> known) {
+    private static Map<String, Object> only(Map<String, Object> p, Set<String> known) {
         Map<String, Object> out = new HashMap<>();
         for (Map.Entry<String, Object> e : p.entrySet()) {
             if (known.contains(e.getKey()) || e.getKey().startsWith("sasl.") || e.getKey().startsWith("ssl.")) {
