@@ -1,12 +1,14 @@
 package lariat.audit;
 
 import lariat.schema.ModelVersion;
+import org.apache.avro.AvroRuntimeException;
 import org.apache.kafka.clients.consumer.Consumer;
 import org.apache.kafka.clients.consumer.ConsumerRecord;
 import org.apache.kafka.common.PartitionInfo;
 import org.apache.kafka.common.TopicPartition;
 
 import java.io.IOException;
+import java.nio.BufferUnderflowException;
 import java.nio.ByteBuffer;
 import java.time.Duration;
 import java.util.ArrayList;
@@ -111,9 +113,11 @@ public final class ModelTopicReader {
         if (value == null) {
             return null;
         }
+        ModelSchemaTrust.ensure();
         try {
             return ModelVersion.fromByteBuffer(ByteBuffer.wrap(value));
-        } catch (IOException | RuntimeException e) {
+        } catch (IOException | AvroRuntimeException | IndexOutOfBoundsException | NegativeArraySizeException
+                 | BufferUnderflowException e) {
             return null;
         }
     }

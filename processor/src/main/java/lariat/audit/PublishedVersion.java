@@ -29,6 +29,7 @@ public final class PublishedVersion {
             throw new IllegalArgumentException("modelPartition and modelOffset must be >= 0, were " + modelPartition
                     + " and " + modelOffset);
         }
+        ModelSchemaTrust.ensure();
         return new PublishedVersion(ModelVersion.newBuilder(record).build(), modelPartition, modelOffset);
     }
 

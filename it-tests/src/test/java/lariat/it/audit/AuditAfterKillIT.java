@@ -78,7 +78,7 @@ class AuditAfterKillIT {
     private static final Duration TIMEOUT = Duration.ofSeconds(30);
 
     @TempDir
-    Path dir;
+    static Path dir;
 
     private String input;
     private String models;
