@@ -4,8 +4,9 @@ import picocli.CommandLine;
 import picocli.CommandLine.Command;
 
 /** Entry point of the {@code lariat} command line. */
-@Command(name = "lariat", mixinStandardHelpOptions = true, subcommands = {BrokerCommand.class, RunCommand.class, HistoryCommand.class,
-        AuditCommand.class, RecomputeCommand.class},
+@Command(name = "lariat", mixinStandardHelpOptions = true,
+        subcommands = {BrokerCommand.class, FitCommand.class, RunCommand.class, HistoryCommand.class, AuditCommand.class,
+            RecomputeCommand.class},
         description = "Streaming lasso-path feature selection for Kafka pipelines.")
 public final class Main implements Runnable {
 

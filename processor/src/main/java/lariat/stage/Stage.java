@@ -2,6 +2,7 @@ package lariat.stage;
 
 import lariat.codec.ChannelLayout;
 import lariat.codec.KeyLayouts;
+import org.apache.kafka.clients.consumer.CloseOptions;
 import org.apache.kafka.clients.consumer.Consumer;
 import org.apache.kafka.clients.consumer.ConsumerRebalanceListener;
 import org.apache.kafka.clients.consumer.ConsumerRecord;
@@ -407,7 +408,7 @@ public final class Stage implements AutoCloseable {
 
     private static void closeQuietly(Consumer<byte[], byte[]> c, Duration timeout) {
         try {
-            c.close(timeout);
+            c.close(CloseOptions.timeout(timeout));
         } catch (KafkaException e) {
             LOG.warn("consumer close failed: {}", e.toString());
         }
