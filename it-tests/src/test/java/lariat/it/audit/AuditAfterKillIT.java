@@ -101,6 +101,9 @@ class AuditAfterKillIT {
         produce(0, RECORDS / 2);
         try (StageChild first = StageChild.start(config, log)) {
             awaitCommitted(RECORDS / 4);
+            if (!first.alive()) {
+                throw new IllegalStateException("the first stage exited before it could be killed; see " + log);
+            }
             first.kill();
         }
         produce(RECORDS / 2, RECORDS);
