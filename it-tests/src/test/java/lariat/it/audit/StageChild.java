@@ -46,10 +46,11 @@ final class StageChild implements AutoCloseable {
         }
     }
 
+    /** Kills the child if it still runs; does not wait for it. */
     @Override
-    public void close() throws InterruptedException {
+    public void close() {
         if (process.isAlive()) {
-            kill();
+            process.destroyForcibly();
         }
     }
 }
