@@ -6,9 +6,12 @@ import picocli.CommandLine.Command;
 /** Entry point of the {@code lariat} command line. */
 @Command(name = "lariat", mixinStandardHelpOptions = true,
         subcommands = {
+            AuditCommand.class,
             BrokerCommand.class,
             FitCommand.class,
+            HistoryCommand.class,
             ProduceCommand.class,
+            RecomputeCommand.class,
             RunCommand.class,
         },
         description = "Streaming lasso-path feature selection for Kafka pipelines.")

@@ -1,11 +1,7 @@
 package lariat.stage;
 
 import lariat.codec.ChannelLayout;
-import lariat.codec.Decoded;
 import lariat.codec.KeyLayouts;
-import lariat.codec.Reading;
-import lariat.codec.Rejection;
-import lariat.codec.Skipped;
 import org.apache.kafka.clients.consumer.CloseOptions;
 import org.apache.kafka.clients.consumer.Consumer;
 import org.apache.kafka.clients.consumer.ConsumerRebalanceListener;
@@ -60,14 +56,13 @@ public final class Stage implements AutoCloseable {
     private static final Duration IDLE_POLL = Duration.ofMillis(200);
 
     private final StageSettings s;
-    private final InputDecoder decoder;
     private final Refitter refitter;
     private final ClientFactory clients;
     private final StageMetrics metrics;
     private final PartitionStates states = new PartitionStates();
     private final Map<Integer, PartitionWork> work = new LinkedHashMap<>();
     private final Map<Integer, KeyLayouts> layouts = new HashMap<>();
-    private final String targetName;
+    private final RecordRouter router;
     private final Set<TopicPartition> assigned = new HashSet<>();
     private final CountDownLatch stopped = new CountDownLatch(1);
     private volatile boolean stopping;
@@ -89,8 +84,8 @@ public final class Stage implements AutoCloseable {
     Stage(StageSettings settings, String targetName, InputDecoder decoder, Refitter refitter, ClientFactory clients,
           StageMetrics metrics) {
         this.s = settings;
-        this.targetName = targetName;
-        this.decoder = decoder;
+        this.router = new RecordRouter(targetName, decoder, settings.blockSize(), settings.halfLifeMs(),
+                settings.cvFolds());
         this.refitter = refitter;
         this.clients = clients;
         this.metrics = metrics;
@@ -223,53 +218,24 @@ public final class Stage implements AutoCloseable {
         PartitionWork w = work.computeIfAbsent(r.partition(), p -> new PartitionWork());
         w.nextOffset = r.offset() + 1;
         KeyLayouts partitionLayouts = layouts.computeIfAbsent(r.partition(), p -> KeyLayouts.create());
-        Decoded d = decoder.decode(r.key(), r.value(), r.timestamp(), partitionLayouts);
-        if (d instanceof Skipped) {
-            metrics.skipped();
-            return;
+        RecordRouter.Outcome o = router.route(states, partitionLayouts, r.partition(), r.offset(), r.key(),
+                r.value(), r.timestamp());
+        switch (o.kind) {
+            case SKIPPED:
+                metrics.skipped();
+                break;
+            case REJECTED:
+                if (DeadLetters.KEY_ON_TWO_PARTITIONS.equals(o.reason)) {
+                    metrics.keyOnTwoPartitions();
+                    LOG.error("model key '{}' arrived on input partition {} but {}: the input must be "
+                            + "partitioned by model key", o.key, r.partition(), o.detail);
+                }
+                reject(w, r, o.reason, o.detail, o.exceptionClass);
+                break;
+            default:
+                metrics.recordAccepted();
+                break;
         }
-        if (d instanceof Rejection) {
-            Rejection x = (Rejection) d;
-            reject(w, r, x.reason().name(), x.detail(), x.exceptionClass().orElse(null));
-            return;
-        }
-        Reading reading = (Reading) d;
-        String key = reading.key();
-        int owner = states.ownerOf(key);
-        if (owner >= 0 && owner != r.partition()) {
-            metrics.keyOnTwoPartitions();
-            LOG.error("model key '{}' arrived on input partition {} but lives on partition {}: the input must be "
-                    + "partitioned by model key", key, r.partition(), owner);
-            reject(w, r, DeadLetters.KEY_ON_TWO_PARTITIONS, "key lives on partition " + owner, null);
-            return;
-        }
-        KeyState state = owner >= 0 ? states.get(key) : null;
-        double[] z = reading.z();
-        if (state != null && state.width() != z.length) {
-            reject(w, r, DeadLetters.WRONG_WIDTH, "key has width " + state.width() + ", record has " + z.length,
-                    null);
-            return;
-        }
-        boolean fresh = state == null;
-        if (fresh) {
-            List<String> names = new ArrayList<>(reading.channels());
-            names.add(targetName);
-            state = KeyState.create(key, r.partition(), names.toArray(new String[0]), s.blockSize(),
-                    s.halfLifeMs(), s.cvFolds());
-        }
-        try {
-            state.add(z, reading.weight(), reading.eventTimeMs(), r.offset());
-        } catch (IllegalArgumentException e) {
-            if (fresh) {
-                partitionLayouts.remove(key);
-            }
-            reject(w, r, DeadLetters.NON_FINITE, e.getMessage(), e.getClass().getName());
-            return;
-        }
-        if (fresh) {
-            states.put(state);
-        }
-        metrics.recordAccepted();
     }
 
     private void reject(PartitionWork w, ConsumerRecord<byte[], byte[]> r, String reason, String detail,

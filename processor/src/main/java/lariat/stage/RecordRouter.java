@@ -1,0 +1,107 @@
+package lariat.stage;
+
+import lariat.codec.Decoded;
+import lariat.codec.KeyLayouts;
+import lariat.codec.Reading;
+import lariat.codec.Rejection;
+import lariat.codec.Skipped;
+
+import java.util.ArrayList;
+import java.util.List;
+
+/**
+ * The stage's per-record step: decode one input record, validate it, route it to its key's state
+ * (creating the state on the key's first accepted record) and add it to the key's moments. The
+ * stage loop and the replays of {@code lariat.audit} both call this one method, so a replay computes
+ * the same state from the same records. Touches only the given states and layouts; sends nothing.
+ */
+final class RecordRouter {
+
+    /** What became of one record. */
+    enum Kind { ACCEPTED, SKIPPED, REJECTED }
+
+    /** The outcome of one record: its kind and, for a rejection, the key when decoded, the dead-letter reason and detail. */
+    static final class Outcome {
+        private static final Outcome ACCEPTED = new Outcome(Kind.ACCEPTED, null, null, null, null);
+        private static final Outcome SKIPPED = new Outcome(Kind.SKIPPED, null, null, null, null);
+
+        final Kind kind;
+        final String key;
+        final String reason;
+        final String detail;
+        final String exceptionClass;
+
+        private Outcome(Kind kind, String key, String reason, String detail, String exceptionClass) {
+            this.kind = kind;
+            this.key = key;
+            this.reason = reason;
+            this.detail = detail;
+            this.exceptionClass = exceptionClass;
+        }
+
+        static Outcome rejected(String key, String reason, String detail, String exceptionClass) {
+            return new Outcome(Kind.REJECTED, key, reason, detail, exceptionClass);
+        }
+    }
+
+    private final String targetName;
+    private final InputDecoder decoder;
+    private final int blockSize;
+    private final double halfLifeMs;
+    private final int cvFolds;
+
+    RecordRouter(String targetName, InputDecoder decoder, int blockSize, double halfLifeMs, int cvFolds) {
+        this.targetName = targetName;
+        this.decoder = decoder;
+        this.blockSize = blockSize;
+        this.halfLifeMs = halfLifeMs;
+        this.cvFolds = cvFolds;
+    }
+
+    /**
+     * Routes the record at {@code offset} of input {@code partition}. Modifies {@code states} (the
+     * key's state) and {@code layouts} (the partition's channel layouts) only when the record is
+     * accepted; a skipped or rejected record leaves both as they were.
+     */
+    Outcome route(PartitionStates states, KeyLayouts layouts, int partition, long offset, byte[] recordKey,
+                  byte[] value, long timestampMs) {
+        Decoded d = decoder.decode(recordKey, value, timestampMs, layouts);
+        if (d instanceof Skipped) {
+            return Outcome.SKIPPED;
+        }
+        if (d instanceof Rejection) {
+            Rejection x = (Rejection) d;
+            return Outcome.rejected(null, x.reason().name(), x.detail(), x.exceptionClass().orElse(null));
+        }
+        Reading reading = (Reading) d;
+        String key = reading.key();
+        int owner = states.ownerOf(key);
+        if (owner >= 0 && owner != partition) {
+            return Outcome.rejected(key, DeadLetters.KEY_ON_TWO_PARTITIONS, "key lives on partition " + owner, null);
+        }
+        KeyState state = owner >= 0 ? states.get(key) : null;
+        double[] z = reading.z();
+        if (state != null && state.width() != z.length) {
+            return Outcome.rejected(key, DeadLetters.WRONG_WIDTH,
+                    "key has width " + state.width() + ", record has " + z.length, null);
+        }
+        boolean fresh = state == null;
+        if (fresh) {
+            List<String> names = new ArrayList<>(reading.channels());
+            names.add(targetName);
+            state = KeyState.create(key, partition, names.toArray(new String[0]), blockSize, halfLifeMs, cvFolds);
+        }
+        try {
+            state.add(z, reading.weight(), reading.eventTimeMs(), offset);
+        } catch (IllegalArgumentException e) {
+            if (fresh) {
+                layouts.remove(key);
+            }
+            return Outcome.rejected(key, DeadLetters.NON_FINITE, e.getMessage(), e.getClass().getName());
+        }
+        if (fresh) {
+            states.put(state);
+        }
+        return Outcome.ACCEPTED;
+    }
+}
