@@ -8,6 +8,7 @@ import picocli.CommandLine.Command;
         subcommands = {
             AuditCommand.class,
             BrokerCommand.class,
+            ConfigDocCommand.class,
             FitCommand.class,
             HistoryCommand.class,
             ProduceCommand.class,
