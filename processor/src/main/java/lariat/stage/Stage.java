@@ -254,11 +254,15 @@ public final class Stage implements AutoCloseable {
         if (fresh) {
             List<String> names = new ArrayList<>(reading.channels());
             names.add(targetName);
-            state = KeyState.create(key, r.partition(), names.toArray(new String[0]), s.blockSize(),
-                    s.halfLifeMs(), s.cvFolds());
+            state = KeyState.create(key, r.partition(), names.toArray(new String[0]), s.emptyMoments(names.size()),
+                    s.cvFolds());
         }
         try {
-            state.add(z, reading.weight(), reading.eventTimeMs(), r.offset());
+            if (!state.add(z, reading.weight(), reading.eventTimeMs(), r.offset())) {
+                reject(w, r, DeadLetters.TOO_LATE_FOR_WINDOW, "event time " + reading.eventTimeMs()
+                        + " ms is older than the key's sliding window", null);
+                return;
+            }
         } catch (IllegalArgumentException e) {
             if (fresh) {
                 partitionLayouts.remove(key);
