@@ -96,14 +96,34 @@ public final class PaneWindow {
         return true;
     }
 
+    /**
+     * Whether {@link #add} would accept a record at this event time: its pane is not before the window.
+     * Reads nothing but the window's position and modifies nothing.
+     */
+    public boolean accepts(long eventTimeMs) {
+        long index = Math.floorDiv(eventTimeMs, paneMs);
+        return !started || index >= latest || inWindow(latest, index);
+    }
+
     /** New moments: the live panes merged oldest first. */
     public Moments merged() {
+        return started ? mergedEndingAt(latest) : new Moments(d);
+    }
+
+    /**
+     * New moments of the window as it will stand once event time reaches {@code eventTimeMs}: the live panes
+     * inside the window ending at the later of the latest pane and the pane of {@code eventTimeMs}, merged
+     * oldest first. Equals {@link #merged()} when that pane is not after the latest; modifies nothing. Used
+     * to align several windows (one per cross-validation fold) on one common event time.
+     */
+    public Moments mergedAsOf(long eventTimeMs) {
+        return started ? mergedEndingAt(Math.max(latest, Math.floorDiv(eventTimeMs, paneMs))) : new Moments(d);
+    }
+
+    private Moments mergedEndingAt(long newest) {
         Moments m = new Moments(d);
-        if (!started) {
-            return m;
-        }
         for (int k = panes - 1; k >= 0; k--) {
-            long index = latest - k;
+            long index = newest - k;
             int slot = (int) Math.floorMod(index, (long) panes);
             if (live[slot] && paneIndex[slot] == index) {
                 m.merge(ring[slot]);

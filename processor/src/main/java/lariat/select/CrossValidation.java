@@ -22,7 +22,8 @@ public final class CrossValidation {
 
     /**
      * @param full        the path fitted to all the data (its knots give the grid)
-     * @param folds       fold moments over (features..., target) columns
+     * @param allFolds    fold moments over (features..., target) columns (read aligned, see
+     *                    {@link FoldMoments#aligned()})
      * @param featureCols feature columns in the fold moments, in the order of the full path's features
      * @param targetCol   target column in the fold moments
      * @param options     path options for the training fits; they should not stop before the grid's
@@ -31,8 +32,9 @@ public final class CrossValidation {
      * @throws IllegalArgumentException if fewer than two folds hold records, or a training part has fewer
      *                                  than two records
      */
-    public static CvCurve run(LassoPath full, FoldMoments folds, int[] featureCols, int targetCol,
+    public static CvCurve run(LassoPath full, FoldMoments allFolds, int[] featureCols, int targetCol,
                               PathOptions options) {
+        FoldMoments folds = allFolds.aligned();
         List<Knot> knots = full.knots();
         double[] grid = new double[knots.size()];
         for (int g = 0; g < grid.length; g++) {

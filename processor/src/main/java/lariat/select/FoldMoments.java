@@ -2,58 +2,113 @@ package lariat.select;
 
 import java.util.ArrayList;
 import java.util.List;
+import lariat.moments.Accumulator;
 import lariat.moments.Moments;
 
 /**
- * K accumulators of {@link Moments}, one per cross-validation fold. A record goes to the fold chosen by
- * {@link FoldAssignment} from its ordinal, or to a fold the caller names. The training moments of fold k
- * are the merge of the other folds; the held-out moments are fold k's own. Mutable, not thread-safe.
+ * K accumulators, one per cross-validation fold. A record goes to the fold chosen by {@link FoldAssignment}
+ * from its ordinal, or to a fold the caller names. The training moments of fold k are the merge of the
+ * other folds; the held-out moments are fold k's own.
+ *
+ * <p>Every fold is an {@link Accumulator} of one kind: plain moments, or the same kind and parameters as a
+ * key's main accumulator ({@link #FoldMoments(Accumulator, int)}: same block size and half-life, or same
+ * window), so the folds forget and slide exactly as the main moments do. Folds are read aligned on the
+ * largest event time any fold has seen ({@link Accumulator#momentsAsOf}), so that with forgetting every
+ * record carries weight w · 2^(−(T − t)/h) in its fold and the merge of all folds equals the main moments up
+ * to rounding. Mutable, not thread-safe.
  */
 public final class FoldMoments {
 
-    private final Moments[] folds;
+    private final Accumulator[] folds;
+    private long latest = Long.MIN_VALUE;
 
-    /** K empty folds of width {@code width}. */
+    /** K empty plain folds of width {@code width} (record-by-record moments, no forgetting). */
     public FoldMoments(int width, int folds) {
+        this(Accumulator.plain(width), folds);
+    }
+
+    /**
+     * K empty folds of the kind and parameters of {@code prototype} (its contents are not copied).
+     *
+     * @throws IllegalArgumentException when {@code folds < 2} or the prototype is null
+     */
+    public FoldMoments(Accumulator prototype, int folds) {
         if (folds < 2) {
             throw new IllegalArgumentException("folds must be >= 2, was " + folds);
         }
-        this.folds = new Moments[folds];
+        if (prototype == null) {
+            throw new IllegalArgumentException("prototype is null");
+        }
+        this.folds = new Accumulator[folds];
         for (int k = 0; k < folds; k++) {
-            this.folds[k] = new Moments(width);
+            this.folds[k] = prototype.emptyLike();
+        }
+    }
+
+    private FoldMoments(Accumulator[] folds) {
+        this.folds = folds;
+        for (Accumulator f : folds) {
+            if (f.count() > 0) {
+                latest = Math.max(latest, f.moments().maxEventTimeMs());
+            }
         }
     }
 
     /**
-     * Folds holding copies of {@code folds}, in order (the inverse of {@link #foldList()}), e.g. to
-     * restore fold moments from their canonical bytes.
+     * Plain folds holding copies of {@code folds}, in order, e.g. to restore fold moments written as plain
+     * {@link Moments}.
      *
      * @throws IllegalArgumentException when fewer than two folds are given or widths differ
      */
     public static FoldMoments of(List<Moments> folds) {
+        List<Accumulator> a = new ArrayList<>(folds.size());
+        for (Moments m : folds) {
+            a.add(Accumulator.plainOf(m));
+        }
+        return ofAccumulators(a);
+    }
+
+    /**
+     * Folds made of {@code folds} themselves (not copied), in order: the inverse of {@link #accumulators()}
+     * after a round trip through {@link Accumulator#toBytes()}.
+     *
+     * @throws IllegalArgumentException when fewer than two folds are given or widths differ
+     */
+    public static FoldMoments ofAccumulators(List<Accumulator> folds) {
         if (folds.size() < 2) {
-            throw new IllegalArgumentException("folds must hold >= 2 moments, was " + folds.size());
+            throw new IllegalArgumentException("folds must hold >= 2 accumulators, was " + folds.size());
         }
-        FoldMoments f = new FoldMoments(folds.get(0).width(), folds.size());
-        for (int k = 0; k < folds.size(); k++) {
-            if (folds.get(k).width() != f.width()) {
-                throw new IllegalArgumentException("folds[" + k + "] has width " + folds.get(k).width()
-                        + ", folds[0] has " + f.width());
+        Accumulator[] a = folds.toArray(new Accumulator[0]);
+        for (int k = 0; k < a.length; k++) {
+            if (a[k].width() != a[0].width()) {
+                throw new IllegalArgumentException("folds[" + k + "] has width " + a[k].width()
+                        + ", folds[0] has " + a[0].width());
             }
-            f.folds[k] = folds.get(k).copy();
         }
-        return f;
+        return new FoldMoments(a);
     }
 
-    /** Adds a record to the fold of its ordinal. Modifies one fold; see {@link Moments#add}. */
-    public void add(double[] z, double weight, long eventTimeMs, long ordinal) {
-        folds[FoldAssignment.fold(ordinal, folds.length)].add(z, weight, eventTimeMs);
+    /**
+     * Adds a record to the fold of its ordinal. Modifies one fold; see {@link Accumulator#add}.
+     *
+     * @return false when the fold is a window and refused the record as too old (nothing changed)
+     */
+    public boolean add(double[] z, double weight, long eventTimeMs, long ordinal) {
+        return addToFold(FoldAssignment.fold(ordinal, folds.length), z, weight, eventTimeMs);
     }
 
-    /** Adds a record to fold {@code fold}. */
-    public void addToFold(int fold, double[] z, double weight, long eventTimeMs) {
+    /**
+     * Adds a record to fold {@code fold}.
+     *
+     * @return false when the fold is a window and refused the record as too old (nothing changed)
+     */
+    public boolean addToFold(int fold, double[] z, double weight, long eventTimeMs) {
         checkFold(fold);
-        folds[fold].add(z, weight, eventTimeMs);
+        boolean added = folds[fold].add(z, weight, eventTimeMs);
+        if (added) {
+            latest = Math.max(latest, eventTimeMs);
+        }
+        return added;
     }
 
     public int folds() {
@@ -64,38 +119,59 @@ public final class FoldMoments {
         return folds[0].width();
     }
 
-    /** A copy of fold k's moments (the held-out part). */
+    /** Fold k's moments aligned on the latest event time (the held-out part), a new object. */
     public Moments heldOut(int fold) {
         checkFold(fold);
-        return folds[fold].copy();
+        return folds[fold].momentsAsOf(latest);
     }
 
-    /** The merge of every fold but k (the training part), a new object. */
+    /** The merge of every fold but k, aligned on the latest event time (the training part), a new object. */
     public Moments training(int fold) {
         checkFold(fold);
         Moments t = new Moments(width());
         for (int k = 0; k < folds.length; k++) {
             if (k != fold) {
-                t.merge(folds[k]);
+                t.merge(folds[k].momentsAsOf(latest));
             }
         }
         return t;
     }
 
-    /** The merge of all folds, a new object. */
+    /** The merge of all folds aligned on the latest event time, a new object. */
     public Moments all() {
         Moments t = new Moments(width());
-        for (Moments f : folds) {
-            t.merge(f);
+        for (Accumulator f : folds) {
+            t.merge(f.momentsAsOf(latest));
         }
         return t;
     }
 
-    /** Copies of all folds in order. */
+    /**
+     * Plain folds holding each fold's aligned moments: what {@link #heldOut} and {@link #training} read,
+     * computed once (cross-validation reads every fold K times).
+     */
+    public FoldMoments aligned() {
+        Accumulator[] a = new Accumulator[folds.length];
+        for (int k = 0; k < a.length; k++) {
+            a[k] = Accumulator.plainOf(folds[k].momentsAsOf(latest));
+        }
+        return new FoldMoments(a);
+    }
+
+    /** Copies of all folds' aligned moments in order. */
     public List<Moments> foldList() {
         List<Moments> out = new ArrayList<>();
-        for (Moments f : folds) {
-            out.add(f.copy());
+        for (Accumulator f : folds) {
+            out.add(f.momentsAsOf(latest));
+        }
+        return out;
+    }
+
+    /** Canonical bytes of each fold's accumulator in order (see {@link Accumulator#toBytes()}). */
+    public List<byte[]> accumulators() {
+        List<byte[]> out = new ArrayList<>();
+        for (Accumulator f : folds) {
+            out.add(f.toBytes());
         }
         return out;
     }

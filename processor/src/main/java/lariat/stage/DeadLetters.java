@@ -28,6 +28,8 @@ public final class DeadLetters {
     public static final String WRONG_WIDTH = "WRONG_WIDTH";
     /** Reason for a record the moments refused (non-finite value or weight). */
     public static final String NON_FINITE = "NON_FINITE";
+    /** Reason for a record older than its key's sliding window (the window's state is left alone). */
+    public static final String TOO_LATE_FOR_WINDOW = "TOO_LATE_FOR_WINDOW";
 
     private DeadLetters() {
     }

@@ -1,5 +1,6 @@
 package lariat.stage;
 
+import lariat.moments.Accumulator;
 import lariat.moments.MomentStream;
 import lariat.moments.Moments;
 import lariat.select.FoldMoments;
@@ -22,16 +23,26 @@ import java.util.List;
  * so a restarted stage continues exactly where the last committed transaction left it.
  *
  * <p>Fold assignment: the record with 0-based accepted index {@code n} of this key goes to the fold
- * {@link lariat.select.FoldAssignment} gives {@code n}, a stable hash; no random state.
+ * {@link lariat.select.FoldAssignment} gives {@code n}, a stable hash; no random state. The folds are
+ * accumulators of the main accumulator's kind and parameters (same block size and half-life, or same
+ * sliding window), so the merge of the folds equals the main moments.
+ *
+ * <p>Payload format {@value #FORMAT} (big-endian, {@link DataOutputStream}): format (int), model key,
+ * partition, channels, the seven scalars (count, next version, count and event time at refit, event-time
+ * range, last offset), published active set, alert tracker, then the main {@link Accumulator#toBytes()}
+ * as a length-prefixed blob, the fold count and each fold's {@link Accumulator#toBytes()} blob. Format 1
+ * (read, no longer written) held a {@link MomentStream} blob and plain {@link Moments} folds in those two
+ * places; a format 1 state restores with plain folds and continues exactly as it would have.
  */
 final class KeyState {
 
-    private static final int FORMAT = 1;
+    private static final int FORMAT = 2;
+    private static final int FORMAT_STREAM_AND_PLAIN_FOLDS = 1;
 
     private final String modelKey;
     private final int partition;
     private final String[] channels;
-    private final MomentStream all;
+    private final Accumulator all;
     private final FoldMoments folds;
     private long count;
     private long nextVersion;
@@ -45,7 +56,7 @@ final class KeyState {
     private int chunkCount;
     private boolean dirty;
 
-    private KeyState(String modelKey, int partition, String[] channels, MomentStream all, FoldMoments folds,
+    private KeyState(String modelKey, int partition, String[] channels, Accumulator all, FoldMoments folds,
                      AlertTracker alerts) {
         this.modelKey = modelKey;
         this.partition = partition;
@@ -67,13 +78,35 @@ final class KeyState {
      */
     static KeyState create(String modelKey, int partition, String[] channels, int blockSize, double halfLifeMs,
                            int folds) {
-        FoldMoments f = folds == 0 ? null : new FoldMoments(channels.length, folds);
-        return new KeyState(modelKey, partition, channels.clone(),
-                new MomentStream(channels.length, blockSize, halfLifeMs), f, new AlertTracker());
+        return create(modelKey, partition, channels, Accumulator.stream(channels.length, blockSize, halfLifeMs),
+                folds);
     }
 
-    /** Adds one accepted record; {@code z} is features then target, already validated. */
-    void add(double[] z, double weight, long eventTimeMs, long offset) {
+    /**
+     * A fresh state whose main accumulator (and each fold, when {@code folds} is not 0) is an empty
+     * accumulator of the kind and parameters of {@code prototype}, which must be empty and as wide as
+     * {@code channels}.
+     */
+    static KeyState create(String modelKey, int partition, String[] channels, Accumulator prototype, int folds) {
+        if (prototype.width() != channels.length || prototype.count() != 0) {
+            throw new IllegalArgumentException("prototype must be empty with width " + channels.length + ", was "
+                    + prototype);
+        }
+        FoldMoments f = folds == 0 ? null : new FoldMoments(prototype, folds);
+        return new KeyState(modelKey, partition, channels.clone(), prototype.emptyLike(), f, new AlertTracker());
+    }
+
+    /**
+     * Adds one record; {@code z} is features then target.
+     *
+     * @return false, with nothing changed, when the key keeps a sliding window and the record is older
+     *     than the window
+     * @throws IllegalArgumentException on a non-finite value or weight; nothing changed then
+     */
+    boolean add(double[] z, double weight, long eventTimeMs, long offset) {
+        if (!all.accepts(eventTimeMs)) {
+            return false;
+        }
         all.add(z, weight, eventTimeMs);
         if (folds != null) {
             folds.add(z, weight, eventTimeMs, count);
@@ -83,6 +116,7 @@ final class KeyState {
         maxEventTime = Math.max(maxEventTime, eventTimeMs);
         lastOffset = offset;
         dirty = true;
+        return true;
     }
 
     /**
@@ -133,7 +167,8 @@ final class KeyState {
         return channels.length;
     }
 
-    MomentStream moments() {
+    /** The main accumulator (live). */
+    Accumulator moments() {
         return all;
     }
 
@@ -212,10 +247,10 @@ final class KeyState {
             published.write(out);
             alerts.write(out);
             writeBlob(out, all.toBytes());
-            List<Moments> fl = folds == null ? List.of() : folds.foldList();
+            List<byte[]> fl = folds == null ? List.of() : folds.accumulators();
             out.writeInt(fl.size());
-            for (Moments f : fl) {
-                writeBlob(out, f.toBytes());
+            for (byte[] f : fl) {
+                writeBlob(out, f);
             }
         } catch (IOException e) {
             throw new UncheckedIOException(e);
@@ -231,7 +266,7 @@ final class KeyState {
     static KeyState fromBytes(byte[] bytes, int chunkCount) throws IOException {
         try (DataInputStream in = new DataInputStream(new ByteArrayInputStream(bytes))) {
             int format = in.readInt();
-            if (format != FORMAT) {
+            if (format != FORMAT && format != FORMAT_STREAM_AND_PLAIN_FOLDS) {
                 throw new IOException("unknown key state format " + format);
             }
             String key = in.readUTF();
@@ -250,16 +285,22 @@ final class KeyState {
             }
             ActiveSet published = ActiveSet.read(in);
             AlertTracker alerts = AlertTracker.read(in);
-            MomentStream all = MomentStream.fromBytes(readBlob(in));
+            boolean legacy = format == FORMAT_STREAM_AND_PLAIN_FOLDS;
+            Accumulator all = legacy ? Accumulator.ofStream(MomentStream.fromBytes(readBlob(in)))
+                    : Accumulator.fromBytes(readBlob(in));
             int nf = in.readInt();
             if (nf < 0 || nf == 1 || nf > 1000) {
                 throw new IOException("fold count out of range: " + nf);
             }
-            List<Moments> fl = new ArrayList<>(nf);
+            List<Accumulator> fl = new ArrayList<>(nf);
             for (int i = 0; i < nf; i++) {
-                fl.add(Moments.fromBytes(readBlob(in)));
+                byte[] blob = readBlob(in);
+                fl.add(legacy ? Accumulator.plainOf(Moments.fromBytes(blob)) : Accumulator.fromBytes(blob));
             }
-            FoldMoments folds = nf == 0 ? null : FoldMoments.of(fl);
+            if (all.width() != width || (nf > 0 && fl.get(0).width() != width)) {
+                throw new IOException("moments width differs from the " + width + " channels");
+            }
+            FoldMoments folds = nf == 0 ? null : FoldMoments.ofAccumulators(fl);
             KeyState s = new KeyState(key, partition, channels, all, folds, alerts);
             s.count = scalars[0];
             s.nextVersion = scalars[1];

@@ -36,7 +36,7 @@ final class PathRefitter implements Refitter {
 
     @Override
     public List<ProducerRecord<byte[], byte[]>> refit(KeyState k) {
-        KeyFit fit = KeyFit.of(k.moments().snapshot(), k.folds(), recipe);
+        KeyFit fit = KeyFit.of(k.moments().moments(), k.folds(), recipe);
         long version = k.takeVersion();
         ActiveSet now = ActiveSet.ofCoefficients(fit.selected().rawCoefficients());
         ModelRecords.KeyFacts facts = new ModelRecords.KeyFacts(k.modelKey(), version, k.channels(), k.count(),

@@ -46,16 +46,12 @@ final class RecordRouter {
 
     private final String targetName;
     private final InputDecoder decoder;
-    private final int blockSize;
-    private final double halfLifeMs;
-    private final int cvFolds;
+    private final StageSettings settings;
 
-    RecordRouter(String targetName, InputDecoder decoder, int blockSize, double halfLifeMs, int cvFolds) {
+    RecordRouter(String targetName, InputDecoder decoder, StageSettings settings) {
         this.targetName = targetName;
         this.decoder = decoder;
-        this.blockSize = blockSize;
-        this.halfLifeMs = halfLifeMs;
-        this.cvFolds = cvFolds;
+        this.settings = settings;
     }
 
     /**
@@ -89,10 +85,17 @@ final class RecordRouter {
         if (fresh) {
             List<String> names = new ArrayList<>(reading.channels());
             names.add(targetName);
-            state = KeyState.create(key, partition, names.toArray(new String[0]), blockSize, halfLifeMs, cvFolds);
+            state = KeyState.create(key, partition, names.toArray(new String[0]),
+                    settings.emptyMoments(names.size()), settings.cvFolds());
         }
         try {
-            state.add(z, reading.weight(), reading.eventTimeMs(), offset);
+            if (!state.add(z, reading.weight(), reading.eventTimeMs(), offset)) {
+                if (fresh) {
+                    layouts.remove(key);
+                }
+                return Outcome.rejected(key, DeadLetters.TOO_LATE_FOR_WINDOW, "event time " + reading.eventTimeMs()
+                        + " ms is older than the key's sliding window", null);
+            }
         } catch (IllegalArgumentException e) {
             if (fresh) {
                 layouts.remove(key);

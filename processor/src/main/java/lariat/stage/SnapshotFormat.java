@@ -9,19 +9,36 @@ import java.util.Arrays;
 import java.util.List;
 
 /**
- * Record layout of the snapshot topic. One key's state is split into chunks of at most
- * {@code chunkBytes} bytes plus one manifest, all written in the same transaction:
+ * Record layout of the snapshot topic, framing version {@value #FRAMING_VERSION}. The topic is internal to
+ * the stage (only the stage writes and reads it), so it uses this fixed binary framing rather than Avro;
+ * the state it carries is versioned on its own (the key-state payload begins with its format number, see
+ * {@code KeyState}), and the moments inside it are the canonical bytes whose SHA-256 the model records
+ * carry as fingerprints.
+ *
+ * <p>One key's state is split into chunks of at most {@code chunkBytes} bytes plus one manifest, all
+ * written in the same transaction. Keys are UTF-8; values are big-endian:
  * <pre>
- *   manifest  key = "m|" + modelKey              value = MAGIC, 'M', generation, chunkCount, totalBytes, sha256
- *   chunk i   key = "c|" + i + "|" + modelKey    value = MAGIC, 'C', generation, i, bytes
+ *   manifest  key "m|" + modelKey            value MAGIC, 'M', generation (long), chunkCount (int),
+ *                                                  totalBytes (int), SHA-256 of the state (32 bytes)
+ *   chunk i   key "c|" + i + "|" + modelKey  value MAGIC, 'C', generation (long), i (int), chunk bytes
+ *   marker    key "o|"                        value MAGIC, 'O', next input offset (long)
+ *   tombstone key of a stale chunk            value null
  * </pre>
- * The generation is the key's accepted record count, so a chunk from another snapshot of the
+ * MAGIC ({@code 0x4C}) is the first byte of every value and names framing version 1; a later framing gets
+ * another first byte, and a reader never applies a value whose first byte it does not know (such a
+ * manifest or chunk makes the key's snapshot incomplete).
+ *
+ * <p>The generation is the key's accepted record count, so a chunk from another snapshot of the
  * same key is recognised. A restore applies a state only when every chunk of the latest
  * manifest is present with the manifest's generation and the concatenation has the manifest's
- * SHA-256 (FIPS 180-4). Chunk indexes beyond a new, shorter snapshot are tombstoned.
+ * length and SHA-256 (FIPS 180-4). Chunk indexes beyond a new, shorter snapshot are tombstoned in
+ * the transaction that writes it, so compaction removes them.
  */
 public final class SnapshotFormat {
 
+    /** Version of the framing described in the class comment; named on the wire by {@link #MAGIC}. */
+    public static final int FRAMING_VERSION = 1;
+    /** First byte of every value of framing version 1. */
     static final byte MAGIC = 0x4C;
     private static final byte MANIFEST = 'M';
     private static final byte CHUNK = 'C';

@@ -84,8 +84,7 @@ public final class Stage implements AutoCloseable {
     Stage(StageSettings settings, String targetName, InputDecoder decoder, Refitter refitter, ClientFactory clients,
           StageMetrics metrics) {
         this.s = settings;
-        this.router = new RecordRouter(targetName, decoder, settings.blockSize(), settings.halfLifeMs(),
-                settings.cvFolds());
+        this.router = new RecordRouter(targetName, decoder, settings);
         this.refitter = refitter;
         this.clients = clients;
         this.metrics = metrics;

@@ -24,10 +24,6 @@ public final class StageAssembly {
      *                                  the stage cannot do
      */
     public static Stage create(StageConfig c, Path baseDir) {
-        if (c.get(StageConfig.WINDOW_PANE_MS) > 0) {
-            throw new IllegalArgumentException(StageConfig.WINDOW_PANE_MS.name()
-                    + ": sliding windows are not yet supported by the run command, got " + c.get(StageConfig.WINDOW_PANE_MS));
-        }
         StageSettings s = settings(c);
         RecordDecoder decoder = RecordDecoder.create(c, baseDir);
         RefitRecipe recipe = RefitRecipe.of(c);
@@ -60,6 +56,7 @@ public final class StageAssembly {
                 .blockSize(c.get(StageConfig.MOMENTS_BLOCK_RECORDS))
                 .halfLifeMs(halfLife == 0 ? Double.POSITIVE_INFINITY : (double) halfLife)
                 .cvFolds(RefitRecipe.of(c).cvFolds())
+                .window(c.get(StageConfig.WINDOW_PANE_MS), c.get(StageConfig.WINDOW_PANES))
                 .build();
     }
 

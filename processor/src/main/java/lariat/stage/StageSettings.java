@@ -1,5 +1,7 @@
 package lariat.stage;
 
+import lariat.moments.Accumulator;
+
 import java.util.LinkedHashMap;
 import java.util.Map;
 
@@ -35,6 +37,8 @@ public final class StageSettings {
     private final int blockSize;
     private final double halfLifeMs;
     private final int cvFolds;
+    private final long windowPaneMs;
+    private final int windowPanes;
 
     private StageSettings(Builder b) {
         this.producerProperties = Map.copyOf(b.producerProperties);
@@ -85,6 +89,12 @@ public final class StageSettings {
             throw new IllegalArgumentException("select.cv.folds must be 0 (off) or >= 2, was " + b.cvFolds);
         }
         this.cvFolds = b.cvFolds;
+        this.windowPaneMs = atLeast("window.pane.ms", b.windowPaneMs, 0);
+        this.windowPanes = (int) atLeast("window.panes", b.windowPanes, 1);
+        if (windowPaneMs > 0 && halfLifeMs != Double.POSITIVE_INFINITY) {
+            throw new IllegalArgumentException("window.pane.ms and forget.half.life.ms: choose forgetting or a "
+                    + "window, not both, got " + windowPaneMs + " and " + halfLifeMs);
+        }
     }
 
     private static String require(String key, String value) {
@@ -219,6 +229,26 @@ public final class StageSettings {
         return cvFolds;
     }
 
+    /** Event-time length of one sliding-window pane; 0 when the key keeps no window. */
+    public long windowPaneMs() {
+        return windowPaneMs;
+    }
+
+    /** Panes in the sliding window. */
+    public int windowPanes() {
+        return windowPanes;
+    }
+
+    /**
+     * An empty accumulator of width {@code width} as these settings ask for each key and fold: a sliding
+     * window of panes when {@link #windowPaneMs()} &gt; 0, otherwise a stream with the block size and
+     * half-life.
+     */
+    public Accumulator emptyMoments(int width) {
+        return windowPaneMs > 0 ? Accumulator.window(width, windowPaneMs, windowPanes)
+                : Accumulator.stream(width, blockSize, halfLifeMs);
+    }
+
     /** Mutable builder; defaults are those of the configuration reference. */
     public static final class Builder {
         private final Map<String, Object> producerProperties = new LinkedHashMap<>();
@@ -246,6 +276,8 @@ public final class StageSettings {
         private long blockSize = 64;
         private double halfLifeMs = Double.POSITIVE_INFINITY;
         private int cvFolds = 0;
+        private long windowPaneMs = 0;
+        private int windowPanes = 12;
 
         private Builder() {
         }
@@ -358,6 +390,13 @@ public final class StageSettings {
 
         public Builder cvFolds(int v) {
             this.cvFolds = v;
+            return this;
+        }
+
+        /** Sliding window of {@code panes} panes of {@code paneMs} event-time ms; paneMs 0 for none. */
+        public Builder window(long paneMs, int panes) {
+            this.windowPaneMs = paneMs;
+            this.windowPanes = panes;
             return this;
         }
 

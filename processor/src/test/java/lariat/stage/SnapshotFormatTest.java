@@ -9,6 +9,7 @@ import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertNull;
 import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
 
 class SnapshotFormatTest {
 
@@ -100,5 +101,34 @@ class SnapshotFormatTest {
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
                 () -> SnapshotFormat.encode("k", 1, state(10), 0, 0));
         assertEquals("chunkBytes must be positive, was 0", e.getMessage());
+    }
+
+    @Test
+    void parse_valueOfUnknownFramingVersion_isNotApplied() {
+        List<SnapshotFormat.Entry> entries = SnapshotFormat.encode("k", 1, state(10), CHUNK, 0);
+        byte[] chunk = entries.get(0).value().clone();
+        byte[] manifest = entries.get(1).value().clone();
+        assertEquals(SnapshotFormat.MAGIC, manifest[0], "framing version 1 starts every value with MAGIC");
+        assertEquals(2 + 8 + 4 + 4 + 32, manifest.length, "manifest layout of the class comment");
+        chunk[0] = 0x4D;
+        manifest[0] = 0x4D;
+        assertNull(SnapshotFormat.parseChunk(chunk));
+        assertNull(SnapshotFormat.parseManifest(manifest));
+    }
+
+    @Test
+    void encode_windowedKeyStateOverChunks_restoresBitExactly() throws java.io.IOException {
+        KeyState k = KeyState.create("west-02", 0, new String[] {"flow", "head", "current"},
+                lariat.moments.Accumulator.window(3, 1000L, 8), 4);
+        java.util.Random rnd = new java.util.Random(4);
+        for (int i = 0; i < 200; i++) {
+            k.add(new double[] {rnd.nextGaussian(), rnd.nextGaussian(), rnd.nextGaussian()}, 1.0, 97L * i, i);
+        }
+        byte[] state = k.toBytes();
+        List<SnapshotFormat.Entry> entries = SnapshotFormat.encode("west-02", k.count(), state, CHUNK, 0);
+        assertTrue(entries.size() > 3, "the state spans several chunks");
+        KeyState restored = KeyState.fromBytes(assemble(entries, -1, -1), entries.size() - 1);
+        assertArrayEquals(state, restored.toBytes());
+        assertEquals(k.moments().moments().fingerprint(), restored.moments().moments().fingerprint());
     }
 }
