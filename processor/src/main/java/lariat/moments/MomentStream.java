@@ -1,0 +1,270 @@
+package lariat.moments;
+
+import java.nio.BufferUnderflowException;
+import java.nio.ByteBuffer;
+import java.util.Arrays;
+
+/**
+ * Per-key accumulator: fixed-size blocks aligned to the record count, event-time forgetting, pending
+ * partial block kept raw.
+ *
+ * <p>Records 0..B−1 form the first block, B..2B−1 the second, and so on (B = block size). A block is merged
+ * into the state with {@link Moments}' block update when its last record arrives; the records of an
+ * unfinished block stay raw. The state therefore depends only on the ordered records, never on how a
+ * caller grouped its {@link #add} calls or when it took snapshots or serialized: the same records in the
+ * same order give bit-identical bytes and fingerprints.
+ *
+ * <p>Forgetting with half-life h (event time, never wall-clock time): the intended result is the batch
+ * moments in which record i has weight w_i · 2^(−(T − t_i)/h), T the largest event time seen. When a block
+ * is merged, let t_s be the state's largest event time and t_b = max(t_s, largest time in the block). The
+ * state's W and C are scaled by f = 2^(−(t_b − t_s)/h) and Σ w² by f², and block row i enters with weight
+ * w_i · 2^(−(t_b − t_i)/h), so a late record gets less weight. Factors are computed with
+ * {@link StrictMath#pow} so that results are reproducible across platforms. A weight that underflows to
+ * zero leaves the record counted but weightless; a state whose weight underflows becomes empty in weight.
+ * With h = +∞ no weight is ever scaled.
+ *
+ * <p>Canonical bytes ({@link #toBytes()}), big-endian: format version (1 byte, {@value #FORMAT_VERSION}),
+ * width (int), block size (int), half-life in ms (double, +∞ for none), count (long), pending rows p (int),
+ * the state's {@link Moments#toBytes()}, then p raw rows each as d doubles, weight (double), event time
+ * (long). Not thread-safe.
+ */
+public final class MomentStream {
+
+    /** Format version written as the first byte of {@link #toBytes()}. */
+    public static final byte FORMAT_VERSION = 1;
+
+    private static final int HEADER_BYTES = 1 + 4 + 4 + 8 + 8 + 4;
+
+    private final int d;
+    private final int blockSize;
+    private final double halfLifeMs;
+    private Moments state;
+    private long count;
+    private int pending;
+    private double[] pendingRows;
+    private double[] pendingWeights;
+    private long[] pendingTimes;
+    private double[] decayedWeights;
+
+    /**
+     * Creates an empty stream.
+     *
+     * @param width number of columns d (features first, target last)
+     * @param blockSize records per block, &gt;= 1
+     * @param halfLifeMs forgetting half-life in event-time milliseconds, &gt; 0; {@link Double#POSITIVE_INFINITY}
+     *     means no forgetting
+     * @throws IllegalArgumentException on an invalid argument (the message names it)
+     */
+    public MomentStream(int width, int blockSize, double halfLifeMs) {
+        this.state = new Moments(width);
+        this.d = width;
+        if (blockSize < 1 || (long) blockSize * width > Integer.MAX_VALUE - 8) {
+            throw new IllegalArgumentException("blockSize must be >= 1 with blockSize * width < 2^31, was "
+                    + blockSize + " for width " + width);
+        }
+        if (!(halfLifeMs > 0.0)) {
+            throw new IllegalArgumentException("halfLifeMs must be > 0 or +Infinity, was " + halfLifeMs);
+        }
+        this.blockSize = blockSize;
+        this.halfLifeMs = halfLifeMs;
+        int capacity = Math.min(blockSize, 8);
+        this.pendingRows = new double[capacity * width];
+        this.pendingWeights = new double[capacity];
+        this.pendingTimes = new long[capacity];
+    }
+
+    /** Number of columns d. */
+    public int width() {
+        return d;
+    }
+
+    /** Records per block. */
+    public int blockSize() {
+        return blockSize;
+    }
+
+    /** Forgetting half-life in milliseconds ({@link Double#POSITIVE_INFINITY} for none). */
+    public double halfLifeMs() {
+        return halfLifeMs;
+    }
+
+    /**
+     * Accepts one record; completes and merges a block when this is its last record. Copies {@code z}.
+     *
+     * @throws IllegalArgumentException on a null or wrong-width row, a non-finite value (the message names
+     *     the column and value), a weight that is not finite and positive, or an overflowing merge; nothing
+     *     is modified then
+     */
+    public void add(double[] z, double weight, long eventTimeMs) {
+        RowCheck.row(z, d);
+        RowCheck.weight(weight);
+        ensureCapacity(pending + 1);
+        System.arraycopy(z, 0, pendingRows, pending * d, d);
+        pendingWeights[pending] = weight;
+        pendingTimes[pending] = eventTimeMs;
+        if (pending + 1 == blockSize) {
+            mergeRows(state, pending + 1);
+            pending = 0;
+        } else {
+            pending++;
+        }
+        count++;
+    }
+
+    /** New moments: the merged blocks plus the pending rows, merged into a copy as a block would be. */
+    public Moments snapshot() {
+        Moments s = state.copy();
+        if (pending > 0) {
+            mergeRows(s, pending);
+        }
+        return s;
+    }
+
+    /** Records accepted. */
+    public long count() {
+        return count;
+    }
+
+    /** Records of the unfinished block, kept raw. */
+    public int pendingRows() {
+        return pending;
+    }
+
+    /** An independent deep copy. */
+    public MomentStream copy() {
+        MomentStream c = new MomentStream(d, blockSize, halfLifeMs);
+        c.state = state.copy();
+        c.count = count;
+        c.pending = pending;
+        c.pendingRows = pendingRows.clone();
+        c.pendingWeights = pendingWeights.clone();
+        c.pendingTimes = pendingTimes.clone();
+        return c;
+    }
+
+    /** Canonical bytes (layout in the class comment), including the raw pending rows. */
+    public byte[] toBytes() {
+        int length = HEADER_BYTES + Moments.byteLength(d) + pending * (8 * d + 16);
+        ByteBuffer buf = ByteBuffer.allocate(length);
+        buf.put(FORMAT_VERSION).putInt(d).putInt(blockSize).putDouble(halfLifeMs).putLong(count).putInt(pending);
+        state.write(buf);
+        for (int r = 0; r < pending; r++) {
+            for (int c = 0; c < d; c++) {
+                buf.putDouble(pendingRows[r * d + c]);
+            }
+            buf.putDouble(pendingWeights[r]).putLong(pendingTimes[r]);
+        }
+        return buf.array();
+    }
+
+    /**
+     * Reads bytes written by {@link #toBytes()}.
+     *
+     * @throws IllegalArgumentException if the bytes are null, truncated, of another version, carry trailing
+     *     bytes, or describe an invalid stream (bad parameters, counts that do not add up, a non-finite value
+     *     or bad weight in a pending row)
+     */
+    public static MomentStream fromBytes(byte[] b) {
+        if (b == null) {
+            throw new IllegalArgumentException("bytes is null");
+        }
+        ByteBuffer buf = ByteBuffer.wrap(b);
+        try {
+            MomentStream s = readUnchecked(buf);
+            if (buf.hasRemaining()) {
+                throw new IllegalArgumentException("bytes has " + buf.remaining() + " trailing bytes");
+            }
+            return s;
+        } catch (BufferUnderflowException e) {
+            throw new IllegalArgumentException("stream bytes are truncated", e);
+        }
+    }
+
+    private static MomentStream readUnchecked(ByteBuffer buf) {
+        byte version = buf.get();
+        if (version != FORMAT_VERSION) {
+            throw new IllegalArgumentException("unsupported stream format version " + version);
+        }
+        int width = buf.getInt();
+        int blockSize = buf.getInt();
+        double halfLife = buf.getDouble();
+        MomentStream s = new MomentStream(width, blockSize, halfLife);
+        long count = buf.getLong();
+        int pending = buf.getInt();
+        if (pending < 0 || pending >= blockSize || count < pending || (count - pending) % blockSize != 0) {
+            throw new IllegalArgumentException("pending rows " + pending + " and count " + count
+                    + " do not fit block size " + blockSize);
+        }
+        Moments state = Moments.read(buf);
+        if (state.width() != width || state.count() != count - pending) {
+            throw new IllegalArgumentException("state has width " + state.width() + " and count " + state.count()
+                    + ", expected width " + width + " and count " + (count - pending));
+        }
+        if (buf.remaining() < (long) pending * (8 * width + 16)) {
+            throw new IllegalArgumentException("stream bytes are truncated: " + pending + " pending rows expected");
+        }
+        s.state = state;
+        s.count = count;
+        s.ensureCapacity(pending);
+        for (int r = 0; r < pending; r++) {
+            for (int c = 0; c < width; c++) {
+                s.pendingRows[r * width + c] = buf.getDouble();
+            }
+            s.pendingWeights[r] = buf.getDouble();
+            s.pendingTimes[r] = buf.getLong();
+        }
+        RowCheck.block(s.pendingRows, s.pendingWeights, s.pendingTimes, pending, width);
+        s.pending = pending;
+        return s;
+    }
+
+    /** Lowercase hexadecimal SHA-256 of the canonical bytes of {@link #snapshot()}. */
+    public String fingerprint() {
+        return snapshot().fingerprint();
+    }
+
+    @Override
+    public String toString() {
+        return "MomentStream[width=" + d + ", blockSize=" + blockSize + ", halfLifeMs=" + halfLifeMs
+                + ", count=" + count + ", pending=" + pending + "]";
+    }
+
+    /** Merges the first {@code n} buffered rows into {@code target} as one block, with forgetting. */
+    private void mergeRows(Moments target, int n) {
+        if (halfLifeMs == Double.POSITIVE_INFINITY) {
+            target.mergeBlock(pendingRows, pendingWeights, pendingTimes, n, 1.0);
+            return;
+        }
+        long blockMax = Long.MIN_VALUE;
+        for (int r = 0; r < n; r++) {
+            blockMax = Math.max(blockMax, pendingTimes[r]);
+        }
+        long stateMax = target.maxEventTimeMs();
+        long reference = Math.max(stateMax, blockMax);
+        double stateFactor = target.count() == 0 ? 1.0 : decay(reference, stateMax);
+        if (decayedWeights == null || decayedWeights.length < n) {
+            decayedWeights = new double[pendingWeights.length];
+        }
+        for (int r = 0; r < n; r++) {
+            decayedWeights[r] = pendingWeights[r] * decay(reference, pendingTimes[r]);
+        }
+        target.mergeBlock(pendingRows, decayedWeights, pendingTimes, n, stateFactor);
+    }
+
+    /** 2^(−(later − earlier)/h) for later &gt;= earlier, exactly 1 when they are equal. */
+    private double decay(long later, long earlier) {
+        long elapsed = later - earlier;
+        double dt = elapsed >= 0 ? (double) elapsed : (double) later - (double) earlier;
+        return StrictMath.pow(2.0, -dt / halfLifeMs);
+    }
+
+    private void ensureCapacity(int rows) {
+        if (rows <= pendingWeights.length) {
+            return;
+        }
+        int capacity = (int) Math.min(blockSize, Math.max((long) rows, 2L * pendingWeights.length));
+        pendingRows = Arrays.copyOf(pendingRows, capacity * d);
+        pendingWeights = Arrays.copyOf(pendingWeights, capacity);
+        pendingTimes = Arrays.copyOf(pendingTimes, capacity);
+    }
+}

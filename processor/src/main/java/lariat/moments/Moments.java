@@ -1,0 +1,665 @@
+package lariat.moments;
+
+import java.nio.BufferUnderflowException;
+import java.nio.ByteBuffer;
+import java.util.Arrays;
+import org.ejml.data.DMatrixRMaj;
+import org.ejml.dense.row.CommonOps_DDRM;
+
+/**
+ * Weighted, centered co-moments over z = (z_0..z_{d-1}); callers put features first and the target last.
+ *
+ * <p>The state is the record count n, the total weight W = Σ w, the sum of squared weights Σ w², the
+ * weighted mean μ = Σ w z / W, the centered co-moment matrix C = Σ w (z − μ)(z − μ)ᵀ and the event-time
+ * range. Only centered updates are used; the raw-sum form Σ w z zᵀ − W μ μᵀ is never formed, because it
+ * cancels catastrophically when |μ| is large next to the spread (Chan, Golub &amp; LeVeque 1983 bound its
+ * relative error by about n·ε·κ², κ² = 1 + μ²/σ², against n·ε·κ for the updating formulas used here).
+ *
+ * <pre>
+ * one record (West 1979):   W' = W + w,  δ = z − μ,  μ' = μ + (w/W') δ,  C' = C + (w W / W') δ δᵀ
+ * merge A, B (Chan, Golub &amp; LeVeque 1979):
+ *                           W = W_a + W_b,  δ = μ_b − μ_a,  μ = μ_a + (W_b/W) δ,
+ *                           C = C_a + C_b + (W_a W_b / W) δ δᵀ
+ * block of rows:            μ_b by a corrected two-pass mean, C_b = Xᵀ X with rows √w_i (z_i − μ_b)
+ *                           (an EJML inner product), then merged as above.
+ * </pre>
+ *
+ * <p>The mean is held as an unevaluated sum of two doubles, μ = μ_hi + μ_lo with μ_hi = fl(μ_hi + μ_lo),
+ * updated with the error-free TwoSum (O. Møller, "Quasi double-precision in floating point addition", BIT
+ * 5, 1965, 37–50; T. J. Dekker, "A floating-point technique for extending the available precision",
+ * Numerische Mathematik 18, 1971, 224–242). Then δ = (z − μ_hi) − μ_lo is accurate to the spread of the
+ * data rather than to the last place of |μ|, which the co-moment update needs when |μ| is large next to
+ * the spread: with a plain double mean, each rounding of μ to a unit in the last place of |μ| enters C to
+ * first order. {@link #mean(int)} returns μ_hi.
+ *
+ * <p>Sources: D. H. D. West, "Updating mean and variance estimates: an improved method", Communications
+ * of the ACM 22(9), 1979, 532–535. T. F. Chan, G. H. Golub, R. J. LeVeque, "Updating formulae and a
+ * pairwise algorithm for computing sample variances", Stanford report STAN-CS-79-773, 1979; and
+ * "Algorithms for computing the sample variance: analysis and recommendations", The American
+ * Statistician 37(3), 1983, 242–247.
+ *
+ * <p>C is kept exactly symmetric: the upper triangle is computed and mirrored. A state whose weight
+ * underflows to zero under {@link #scale(double)} becomes empty in weight (W = Σ w² = 0, μ = 0, C = 0) and
+ * keeps its record count and event-time range. Every mutating method checks its input, and that the
+ * result stays finite, before it modifies anything; on failure it throws {@link IllegalArgumentException}
+ * and the state is unchanged. Updates allocate nothing except workspaces sized on first use.
+ *
+ * <p>Canonical bytes ({@link #toBytes()}), big-endian: format version (1 byte, {@value #FORMAT_VERSION}),
+ * width d (int), count (long), W (double), Σ w² (double), min event time (long), max event time (long),
+ * μ_hi (d doubles), μ_lo (d doubles), the upper triangle of C row by row (d(d+1)/2 doubles). Signed zeros
+ * are written as +0.0.
+ * Equality and hash code are those of the canonical bytes. Not thread-safe.
+ */
+public final class Moments {
+
+    /** Format version written as the first byte of {@link #toBytes()}. */
+    public static final byte FORMAT_VERSION = 1;
+
+    /** Largest supported width: the canonical bytes of wider moments would not fit one Java array. */
+    public static final int MAX_WIDTH = 20_000;
+
+    private static final int HEADER_BYTES = 1 + 4 + 8 + 8 + 8 + 8 + 8;
+
+    private final int d;
+    private long count;
+    private double totalWeight;
+    private double sumSquaredWeights;
+    private final double[] mean;
+    private final double[] meanLow;
+    private final double[] comoment;
+    private long minTime = Long.MAX_VALUE;
+    private long maxTime = Long.MIN_VALUE;
+
+    private final double[] delta;
+    private double[] blockMean;
+    private double[] blockMeanLow;
+    private DMatrixRMaj centered;
+    private DMatrixRMaj blockComoment;
+
+    /**
+     * Creates empty moments of width {@code width}.
+     *
+     * @throws IllegalArgumentException unless 1 &lt;= width &lt;= {@link #MAX_WIDTH}
+     */
+    public Moments(int width) {
+        if (width < 1 || width > MAX_WIDTH) {
+            throw new IllegalArgumentException("width must be in [1, " + MAX_WIDTH + "], was " + width);
+        }
+        this.d = width;
+        this.mean = new double[width];
+        this.meanLow = new double[width];
+        this.comoment = new double[width * width];
+        this.delta = new double[width];
+    }
+
+    /** Number of columns d. */
+    public int width() {
+        return d;
+    }
+
+    /**
+     * Adds one record with West's (1979) update. Modifies this object only.
+     *
+     * @throws IllegalArgumentException if {@code z} is null, its length is not {@link #width()}, a value is not
+     *     finite (the message names the column and value), the weight is not finite and positive, or the
+     *     update would overflow; the state is then unchanged
+     */
+    public void add(double[] z, double weight, long eventTimeMs) {
+        RowCheck.row(z, d);
+        RowCheck.weight(weight);
+        double newWeight = totalWeight + weight;
+        double newSquares = sumSquaredWeights + weight * weight;
+        double ratio = weight / newWeight;
+        double k = totalWeight * ratio;
+        for (int i = 0; i < d; i++) {
+            delta[i] = (z[i] - mean[i]) - meanLow[i];
+        }
+        requireFiniteUpdate(newWeight, newSquares, 1.0, ratio, k, "record");
+        moveMean(ratio);
+        for (int i = 0; i < d; i++) {
+            double kd = k * delta[i];
+            int row = i * d;
+            for (int j = i; j < d; j++) {
+                comoment[row + j] += kd * delta[j];
+            }
+        }
+        mirror(comoment, d);
+        totalWeight = newWeight;
+        sumSquaredWeights = newSquares;
+        count++;
+        minTime = Math.min(minTime, eventTimeMs);
+        maxTime = Math.max(maxTime, eventTimeMs);
+    }
+
+    /**
+     * Adds rows {@code 0..n-1} of the row-major block {@code rows} (at least n·d values) with their weights
+     * and event times: the block's own mean and centered co-moment (an EJML product) are computed first,
+     * then merged (Chan, Golub &amp; LeVeque 1979). Reads the arrays, modifies this object only. The result
+     * equals the record-by-record result up to rounding, not bit for bit.
+     *
+     * @throws IllegalArgumentException on a null or short array, a non-finite value (the message names the
+     *     row, column and value), a weight that is not finite and positive, or an overflowing result; the
+     *     state is then unchanged
+     */
+    public void addBlock(double[] rows, double[] weights, long[] eventTimesMs, int n) {
+        RowCheck.block(rows, weights, eventTimesMs, n, d);
+        if (n > 0) {
+            mergeBlock(rows, weights, eventTimesMs, n, 1.0);
+        }
+    }
+
+    /**
+     * Merges {@code other} into this (Chan, Golub &amp; LeVeque 1979). Modifies this object only; {@code other}
+     * may be this object.
+     *
+     * @throws IllegalArgumentException if the widths differ or the result would overflow; the state is then
+     *     unchanged
+     */
+    public void merge(Moments other) {
+        if (other == null) {
+            throw new IllegalArgumentException("other is null");
+        }
+        if (other.d != d) {
+            throw new IllegalArgumentException("other has width " + other.d + ", expected width " + d);
+        }
+        mergeStats(other.count, other.totalWeight, other.sumSquaredWeights, other.mean, other.meanLow,
+                other.comoment, other.minTime, other.maxTime, 1.0);
+    }
+
+    /** An independent deep copy (workspaces are not shared). */
+    public Moments copy() {
+        Moments c = new Moments(d);
+        c.copyFrom(this);
+        return c;
+    }
+
+    /**
+     * Multiplies W and C by {@code factor} and Σ w² by factor², leaving μ unchanged: every record's weight
+     * is multiplied by {@code factor}. If the weight or Σ w² underflows to zero the state becomes empty in
+     * weight (count and event-time range are kept).
+     *
+     * @throws IllegalArgumentException if factor is negative or not finite, or the result would overflow
+     */
+    public void scale(double factor) {
+        if (!(factor >= 0.0 && Double.isFinite(factor))) {
+            throw new IllegalArgumentException("factor must be finite and >= 0, was " + factor);
+        }
+        if (factor == 1.0 || totalWeight == 0.0) {
+            return;
+        }
+        double newWeight = totalWeight * factor;
+        double newSquares = sumSquaredWeights * factor * factor;
+        if (newWeight == 0.0 || newSquares == 0.0) {
+            clearWeights();
+            return;
+        }
+        if (!Double.isFinite(newWeight) || !Double.isFinite(newSquares)) {
+            throw new IllegalArgumentException("scaling by " + factor + " overflows the total weight");
+        }
+        for (int i = 0; i < d; i++) {
+            if (!Double.isFinite(comoment[i * d + i] * factor)) {
+                throw new IllegalArgumentException("scaling by " + factor + " overflows column " + i);
+            }
+        }
+        for (int i = 0; i < comoment.length; i++) {
+            comoment[i] *= factor;
+        }
+        totalWeight = newWeight;
+        sumSquaredWeights = newSquares;
+    }
+
+    /** Number of records merged so far (including records whose weight has decayed to zero). */
+    public long count() {
+        return count;
+    }
+
+    /** Total weight W = Σ w. */
+    public double totalWeight() {
+        return totalWeight;
+    }
+
+    /** Σ w². */
+    public double sumSquaredWeights() {
+        return sumSquaredWeights;
+    }
+
+    /** Kish's effective sample size W² / Σ w², or 0 when W = 0. */
+    public double effectiveSize() {
+        return totalWeight == 0.0 ? 0.0 : totalWeight / sumSquaredWeights * totalWeight;
+    }
+
+    /** Weighted mean μ_hi of column {@code i} (0 when W = 0). */
+    public double mean(int i) {
+        checkIndex(i, "i");
+        return mean[i];
+    }
+
+    /** A copy of the mean vector (μ_hi). */
+    public double[] means() {
+        return mean.clone();
+    }
+
+    /** C_ij = Σ w (z_i − μ_i)(z_j − μ_j). */
+    public double comoment(int i, int j) {
+        checkIndex(i, "i");
+        checkIndex(j, "j");
+        return comoment[i * d + j];
+    }
+
+    /** A copy of C, row-major d × d, exactly symmetric. */
+    public double[] comomentMatrix() {
+        return comoment.clone();
+    }
+
+    /** Smallest event time merged, or {@link Long#MAX_VALUE} when no record has been merged. */
+    public long minEventTimeMs() {
+        return minTime;
+    }
+
+    /** Largest event time merged, or {@link Long#MIN_VALUE} when no record has been merged. */
+    public long maxEventTimeMs() {
+        return maxTime;
+    }
+
+    /** Length of the canonical bytes of moments of width {@code width}. */
+    static int byteLength(int width) {
+        return HEADER_BYTES + 16 * width + 4 * width * (width + 1);
+    }
+
+    /** The canonical bytes described in the class comment; equal states give equal bytes. */
+    public byte[] toBytes() {
+        ByteBuffer buf = ByteBuffer.allocate(byteLength(d));
+        write(buf);
+        return buf.array();
+    }
+
+    /** Writes the canonical bytes into {@code buf} at its position, advancing it. */
+    void write(ByteBuffer buf) {
+        buf.put(FORMAT_VERSION).putInt(d).putLong(count)
+                .putDouble(positiveZero(totalWeight)).putDouble(positiveZero(sumSquaredWeights))
+                .putLong(minTime).putLong(maxTime);
+        for (int i = 0; i < d; i++) {
+            buf.putDouble(positiveZero(mean[i]));
+        }
+        for (int i = 0; i < d; i++) {
+            buf.putDouble(positiveZero(meanLow[i]));
+        }
+        for (int i = 0; i < d; i++) {
+            for (int j = i; j < d; j++) {
+                buf.putDouble(positiveZero(comoment[i * d + j]));
+            }
+        }
+    }
+
+    /**
+     * Reads canonical bytes written by {@link #toBytes()}.
+     *
+     * @throws IllegalArgumentException if the bytes are null, of the wrong length or version, hold a
+     *     non-finite or negative-zero value, or describe an impossible state (negative weight or diagonal,
+     *     weight without records, means or co-moments without weight, an inverted time range)
+     */
+    public static Moments fromBytes(byte[] bytes) {
+        if (bytes == null) {
+            throw new IllegalArgumentException("bytes is null");
+        }
+        if (bytes.length < 5) {
+            throw new IllegalArgumentException("bytes has length " + bytes.length + ", too short for a header");
+        }
+        ByteBuffer buf = ByteBuffer.wrap(bytes);
+        Moments m = read(buf);
+        if (buf.hasRemaining()) {
+            throw new IllegalArgumentException("bytes has " + buf.remaining() + " trailing bytes");
+        }
+        return m;
+    }
+
+    /** Reads one canonical encoding from {@code buf} at its position, advancing it. */
+    static Moments read(ByteBuffer buf) {
+        try {
+            return readUnchecked(buf);
+        } catch (BufferUnderflowException e) {
+            throw new IllegalArgumentException("moments bytes are truncated", e);
+        }
+    }
+
+    private static Moments readUnchecked(ByteBuffer buf) {
+        byte version = buf.get();
+        if (version != FORMAT_VERSION) {
+            throw new IllegalArgumentException("unsupported moments format version " + version);
+        }
+        int width = buf.getInt();
+        if (width < 1 || width > MAX_WIDTH) {
+            throw new IllegalArgumentException("width must be in [1, " + MAX_WIDTH + "], was " + width);
+        }
+        if (buf.remaining() < byteLength(width) - 5) {
+            throw new IllegalArgumentException("moments bytes are truncated: width " + width + " needs "
+                    + byteLength(width) + " bytes");
+        }
+        Moments m = new Moments(width);
+        m.count = buf.getLong();
+        m.totalWeight = readValue(buf, "totalWeight");
+        m.sumSquaredWeights = readValue(buf, "sumSquaredWeights");
+        m.minTime = buf.getLong();
+        m.maxTime = buf.getLong();
+        for (int i = 0; i < width; i++) {
+            m.mean[i] = readValue(buf, "mean");
+        }
+        for (int i = 0; i < width; i++) {
+            m.meanLow[i] = readValue(buf, "meanLow");
+            if (m.mean[i] + m.meanLow[i] != m.mean[i]) {
+                throw new IllegalArgumentException("meanLow " + i + " is not below half a unit in the last place of mean: "
+                        + m.meanLow[i]);
+            }
+        }
+        for (int i = 0; i < width; i++) {
+            for (int j = i; j < width; j++) {
+                m.comoment[i * width + j] = readValue(buf, "comoment");
+            }
+        }
+        mirror(m.comoment, width);
+        m.checkConsistent();
+        return m;
+    }
+
+    private static double readValue(ByteBuffer buf, String field) {
+        double v = buf.getDouble();
+        if (!Double.isFinite(v)) {
+            throw new IllegalArgumentException(field + " has non-finite value " + v);
+        }
+        if (Double.doubleToRawLongBits(v) == Long.MIN_VALUE) {
+            throw new IllegalArgumentException(field + " has a non-canonical negative zero");
+        }
+        return v;
+    }
+
+    private void checkConsistent() {
+        if (count < 0) {
+            throw new IllegalArgumentException("count must be >= 0, was " + count);
+        }
+        if (totalWeight < 0.0 || sumSquaredWeights < 0.0) {
+            throw new IllegalArgumentException("totalWeight and sumSquaredWeights must be >= 0, were "
+                    + totalWeight + " and " + sumSquaredWeights);
+        }
+        if ((totalWeight == 0.0) != (sumSquaredWeights == 0.0)) {
+            throw new IllegalArgumentException("totalWeight " + totalWeight + " and sumSquaredWeights "
+                    + sumSquaredWeights + " must be zero together");
+        }
+        if (count == 0 && (totalWeight != 0.0 || minTime != Long.MAX_VALUE || maxTime != Long.MIN_VALUE)) {
+            throw new IllegalArgumentException("empty moments must have zero weight and an empty time range");
+        }
+        if (count > 0 && minTime > maxTime) {
+            throw new IllegalArgumentException("minEventTimeMs " + minTime + " exceeds maxEventTimeMs " + maxTime);
+        }
+        for (int i = 0; i < d; i++) {
+            if (comoment[i * d + i] < 0.0) {
+                throw new IllegalArgumentException("comoment diagonal " + i + " is negative: " + comoment[i * d + i]);
+            }
+        }
+        if (totalWeight == 0.0) {
+            for (int i = 0; i < d; i++) {
+                if (mean[i] != 0.0 || meanLow[i] != 0.0) {
+                    throw new IllegalArgumentException("moments without weight must have zero means");
+                }
+            }
+            for (double v : comoment) {
+                if (v != 0.0) {
+                    throw new IllegalArgumentException("moments without weight must have zero co-moments");
+                }
+            }
+        }
+    }
+
+    /** Lowercase hexadecimal SHA-256 of {@link #toBytes()}. */
+    public String fingerprint() {
+        return Sha256.hex(toBytes());
+    }
+
+    @Override
+    public boolean equals(Object o) {
+        return this == o || (o instanceof Moments && Arrays.equals(toBytes(), ((Moments) o).toBytes()));
+    }
+
+    @Override
+    public int hashCode() {
+        return Arrays.hashCode(toBytes());
+    }
+
+    @Override
+    public String toString() {
+        return "Moments[width=" + d + ", count=" + count + ", totalWeight=" + totalWeight + "]";
+    }
+
+    /** Makes this an exact copy of {@code other}'s state (same width). */
+    void copyFrom(Moments other) {
+        count = other.count;
+        totalWeight = other.totalWeight;
+        sumSquaredWeights = other.sumSquaredWeights;
+        System.arraycopy(other.mean, 0, mean, 0, d);
+        System.arraycopy(other.meanLow, 0, meanLow, 0, d);
+        System.arraycopy(other.comoment, 0, comoment, 0, comoment.length);
+        minTime = other.minTime;
+        maxTime = other.maxTime;
+    }
+
+    /** Returns this to the state of a new instance. */
+    void reset() {
+        clearWeights();
+        count = 0;
+        minTime = Long.MAX_VALUE;
+        maxTime = Long.MIN_VALUE;
+    }
+
+    /**
+     * Scales the current state's weights by {@code stateFactor} (as {@link #scale(double)}), then merges the
+     * block of rows {@code 0..n-1} (n &gt;= 1) with the given weights, all atomically. Weights must be finite
+     * and &gt;= 0 (a row whose weight has decayed to zero is counted but carries no weight); the caller has
+     * validated the values. Used directly by {@link MomentStream} for event-time forgetting.
+     */
+    void mergeBlock(double[] rows, double[] weights, long[] eventTimesMs, int n, double stateFactor) {
+        ensureBlockWorkspace(n);
+        double blockWeight = 0.0;
+        double blockSquares = 0.0;
+        long blockMin = Long.MAX_VALUE;
+        long blockMax = Long.MIN_VALUE;
+        for (int r = 0; r < n; r++) {
+            blockWeight += weights[r];
+            blockSquares += weights[r] * weights[r];
+            blockMin = Math.min(blockMin, eventTimesMs[r]);
+            blockMax = Math.max(blockMax, eventTimesMs[r]);
+        }
+        double[] c = blockComoment.data;
+        Arrays.fill(blockMean, 0.0);
+        Arrays.fill(blockMeanLow, 0.0);
+        if (blockWeight > 0.0 && blockSquares > 0.0) {
+            blockMoments(rows, weights, n, blockWeight);
+        } else {
+            blockWeight = 0.0;
+            blockSquares = 0.0;
+            Arrays.fill(c, 0.0);
+        }
+        mergeStats(n, blockWeight, blockSquares, blockMean, blockMeanLow, c, blockMin, blockMax, stateFactor);
+    }
+
+    private void ensureBlockWorkspace(int n) {
+        if (blockMean == null) {
+            blockMean = new double[d];
+            blockMeanLow = new double[d];
+            centered = new DMatrixRMaj(n, d);
+            blockComoment = new DMatrixRMaj(d, d);
+        }
+        centered.reshape(n, d);
+    }
+
+    /**
+     * Fills blockMean + blockMeanLow with the corrected two-pass mean m + Σ w (z − m) / W (Chan, Golub &amp;
+     * LeVeque 1983) as a TwoSum pair, and blockComoment with the centered co-moment, exactly symmetric.
+     */
+    private void blockMoments(double[] rows, double[] weights, int n, double blockWeight) {
+        for (int r = 0; r < n; r++) {
+            double w = weights[r];
+            int base = r * d;
+            for (int c = 0; c < d; c++) {
+                blockMean[c] += w * rows[base + c];
+            }
+        }
+        for (int c = 0; c < d; c++) {
+            blockMean[c] /= blockWeight;
+            delta[c] = 0.0;
+        }
+        for (int r = 0; r < n; r++) {
+            double w = weights[r];
+            int base = r * d;
+            for (int c = 0; c < d; c++) {
+                delta[c] += w * (rows[base + c] - blockMean[c]);
+            }
+        }
+        for (int c = 0; c < d; c++) {
+            double correction = delta[c] / blockWeight;
+            double hi = blockMean[c] + correction;
+            blockMeanLow[c] = twoSumError(blockMean[c], correction, hi);
+            blockMean[c] = hi;
+        }
+        double[] x = centered.data;
+        for (int r = 0; r < n; r++) {
+            double s = Math.sqrt(weights[r]);
+            int base = r * d;
+            for (int c = 0; c < d; c++) {
+                x[base + c] = s * ((rows[base + c] - blockMean[c]) - blockMeanLow[c]);
+            }
+        }
+        CommonOps_DDRM.multInner(centered, blockComoment);
+        mirror(blockComoment.data, d);
+    }
+
+    /**
+     * Merges summary statistics B into this after scaling this state's weights by {@code stateFactor}.
+     * Checks finiteness of the result before writing anything. The arrays of B may alias this object's own.
+     */
+    private void mergeStats(long n, double wb, double s2b, double[] mub, double[] mubLow, double[] cb,
+            long minB, long maxB, double stateFactor) {
+        double wa = totalWeight * stateFactor;
+        double s2a = sumSquaredWeights * stateFactor * stateFactor;
+        boolean aEmpty = wa == 0.0 || s2a == 0.0;
+        if (wb == 0.0) {
+            if (aEmpty) {
+                clearWeights();
+            } else if (stateFactor != 1.0) {
+                scale(stateFactor);
+            }
+        } else if (aEmpty) {
+            requireFiniteSummary(wb, s2b, mub, cb);
+            System.arraycopy(mub, 0, mean, 0, d);
+            System.arraycopy(mubLow, 0, meanLow, 0, d);
+            System.arraycopy(cb, 0, comoment, 0, comoment.length);
+            totalWeight = wb;
+            sumSquaredWeights = s2b;
+        } else {
+            mergeWeighted(wa, s2a, wb, s2b, mub, mubLow, cb, stateFactor);
+        }
+        count += n;
+        minTime = Math.min(minTime, minB);
+        maxTime = Math.max(maxTime, maxB);
+    }
+
+    private void mergeWeighted(double wa, double s2a, double wb, double s2b, double[] mub, double[] mubLow,
+            double[] cb, double stateFactor) {
+        double newWeight = wa + wb;
+        double newSquares = s2a + s2b;
+        double ratio = wb / newWeight;
+        double k = wa * ratio;
+        for (int i = 0; i < d; i++) {
+            delta[i] = (mub[i] - mean[i]) + (mubLow[i] - meanLow[i]);
+        }
+        for (int i = 0; i < d; i++) {
+            if (!Double.isFinite(stateFactor * comoment[i * d + i] + cb[i * d + i])) {
+                throw new IllegalArgumentException("merge overflows the co-moment of column " + i);
+            }
+        }
+        requireFiniteUpdate(newWeight, newSquares, stateFactor, ratio, k, "merge");
+        moveMean(ratio);
+        for (int i = 0; i < d; i++) {
+            double kd = k * delta[i];
+            int row = i * d;
+            for (int j = i; j < d; j++) {
+                comoment[row + j] = stateFactor * comoment[row + j] + cb[row + j] + kd * delta[j];
+            }
+        }
+        mirror(comoment, d);
+        totalWeight = newWeight;
+        sumSquaredWeights = newSquares;
+    }
+
+    /**
+     * Throws unless the prospective weights, means μ + ratio·δ and diagonal f·C_ii + k·δ_i² are finite
+     * (δ in {@code delta}). Off-diagonal entries are bounded by the diagonal (C is positive semi-definite).
+     */
+    private void requireFiniteUpdate(double newWeight, double newSquares, double stateFactor, double ratio,
+            double k, String what) {
+        if (!Double.isFinite(newWeight) || !Double.isFinite(newSquares)) {
+            throw new IllegalArgumentException(what + " overflows the total weight");
+        }
+        for (int i = 0; i < d; i++) {
+            double di = delta[i];
+            if (!Double.isFinite(di) || !Double.isFinite(mean[i] + ratio * di)
+                    || !Double.isFinite(stateFactor * comoment[i * d + i] + k * di * di)) {
+                throw new IllegalArgumentException(what + " overflows the moments of column " + i);
+            }
+        }
+    }
+
+    /** μ ← μ + ratio·δ (δ in {@code delta}), keeping μ_hi + μ_lo an exact TwoSum pair. */
+    private void moveMean(double ratio) {
+        for (int i = 0; i < d; i++) {
+            double step = meanLow[i] + ratio * delta[i];
+            double hi = mean[i] + step;
+            meanLow[i] = twoSumError(mean[i], step, hi);
+            mean[i] = hi;
+        }
+    }
+
+    /** The rounding error a + b − s of s = fl(a + b), exactly (Møller 1965). */
+    private static double twoSumError(double a, double b, double s) {
+        double bVirtual = s - a;
+        double aVirtual = s - bVirtual;
+        return (a - aVirtual) + (b - bVirtual);
+    }
+
+    private void requireFiniteSummary(double w, double s2, double[] mu, double[] c) {
+        if (!Double.isFinite(w) || !Double.isFinite(s2)) {
+            throw new IllegalArgumentException("merge overflows the total weight");
+        }
+        for (int i = 0; i < d; i++) {
+            if (!Double.isFinite(mu[i]) || !Double.isFinite(c[i * d + i])) {
+                throw new IllegalArgumentException("merge overflows the moments of column " + i);
+            }
+        }
+    }
+
+    private void clearWeights() {
+        totalWeight = 0.0;
+        sumSquaredWeights = 0.0;
+        Arrays.fill(mean, 0.0);
+        Arrays.fill(meanLow, 0.0);
+        Arrays.fill(comoment, 0.0);
+    }
+
+    private void checkIndex(int i, String name) {
+        if (i < 0 || i >= d) {
+            throw new IllegalArgumentException(name + " must be in [0, " + d + "), was " + i);
+        }
+    }
+
+    /** Copies the upper triangle of the d × d row-major matrix {@code m} onto its lower triangle. */
+    private static void mirror(double[] m, int d) {
+        for (int i = 1; i < d; i++) {
+            int row = i * d;
+            for (int j = 0; j < i; j++) {
+                m[row + j] = m[j * d + i];
+            }
+        }
+    }
+
+    private static double positiveZero(double v) {
+        return v == 0.0 ? 0.0 : v;
+    }
+}
