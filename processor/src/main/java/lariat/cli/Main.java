@@ -5,7 +5,8 @@ import picocli.CommandLine.Command;
 
 /** Entry point of the {@code lariat} command line. */
 @Command(name = "lariat", mixinStandardHelpOptions = true,
-        description = "Streaming lasso-path feature selection for Kafka pipelines.")
+        description = "Streaming lasso-path feature selection for Kafka pipelines.",
+        subcommands = {BenchCommand.class})
 public final class Main implements Runnable {
 
     @CommandLine.Spec
