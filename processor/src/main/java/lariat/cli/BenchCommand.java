@@ -55,9 +55,9 @@ public final class BenchCommand implements Runnable {
         @Option(names = "--repeat", defaultValue = "5", description = "Timed refits (default: ${DEFAULT-VALUE}).")
         int repeat;
 
-        @Option(names = "--warmup", defaultValue = "5", description = "Untimed warm-up refits, at most; warm-up "
-                + "also stops after " + PathBench.WARMUP_BUDGET_S + " s (default: ${DEFAULT-VALUE}).")
-        int warmup;
+        @Option(names = "--warmup-s", defaultValue = "1.0", description = "Seconds of untimed warm-up refits, at "
+                + "least one refit (default: ${DEFAULT-VALUE}).")
+        double warmupSeconds;
 
         @Option(names = "--seed", defaultValue = "1", description = "Random seed (default: ${DEFAULT-VALUE}).")
         long seed;
@@ -69,7 +69,7 @@ public final class BenchCommand implements Runnable {
         public Integer call() throws IOException {
             PathResult r;
             try {
-                r = PathBench.run(features, rows, steps, repeat, seed, warmup);
+                r = PathBench.run(features, rows, steps, repeat, seed, warmupSeconds);
             } catch (IllegalArgumentException e) {
                 spec.commandLine().getErr().println("bench path: " + e.getMessage());
                 return 2;
