@@ -20,6 +20,15 @@ public final class PathBench {
      * @throws IllegalArgumentException if features &lt; 1, rows &lt; 2, steps &lt; 0, repeat &lt; 1 or warmupSeconds &lt; 0
      */
     public static PathResult run(int features, int rows, int steps, int repeat, long seed, double warmupSeconds) {
+        return run(features, rows, steps, repeat, seed, warmupSeconds, false);
+    }
+
+    /**
+     * As {@link #run(int, int, int, int, long, double)}, timing the {@link ContiguousLassoKernel} prototype
+     * instead of the engine when {@code prototype} is set.
+     */
+    public static PathResult run(int features, int rows, int steps, int repeat, long seed, double warmupSeconds,
+                                 boolean prototype) {
         if (steps < 0) {
             throw new IllegalArgumentException("steps must be >= 0 (0 = whole path), was " + steps);
         }
@@ -30,6 +39,9 @@ public final class PathBench {
             throw new IllegalArgumentException("warmup-s must be finite and >= 0, was " + warmupSeconds);
         }
         GramInput input = GramFromRows.of(SyntheticRows.of(features, rows, seed));
+        if (prototype) {
+            return runPrototype(input, steps, repeat, warmupSeconds);
+        }
         PathOptions.Builder b = PathOptions.builder();
         if (steps > 0) {
             b.maxSteps(steps);
@@ -50,5 +62,27 @@ public final class PathBench {
         int actual = path.knots().size() - 1;
         int active = path.last().active().length;
         return PathResult.of(features, rows, actual, active, path.stopReason().name(), Timings.of(seconds));
+    }
+
+    private static PathResult runPrototype(GramInput input, int steps, int repeat, double warmupSeconds) {
+        ContiguousLassoKernel kernel = new ContiguousLassoKernel(input.p());
+        long warmStart = System.nanoTime();
+        do {
+            kernel.fit(input, steps);
+        } while ((System.nanoTime() - warmStart) * 1e-9 < warmupSeconds);
+        double[] seconds = new double[repeat];
+        int actual = 0;
+        for (int r = 0; r < repeat; r++) {
+            long t0 = System.nanoTime();
+            actual = kernel.fit(input, steps);
+            seconds[r] = (System.nanoTime() - t0) * 1e-9;
+        }
+        int active = 0;
+        for (double b : kernel.standardizedCoefficients()) {
+            active += b != 0 ? 1 : 0;
+        }
+        String reason = kernel.stoppedOnPivot() ? "PIVOT" : steps > 0 && actual >= steps ? "MAX_STEPS" : "COMPLETE";
+        return PathResult.of(input.p(), (int) input.count(), actual, active, "PROTOTYPE_" + reason,
+                Timings.of(seconds));
     }
 }

@@ -62,6 +62,10 @@ public final class BenchCommand implements Runnable {
         @Option(names = "--seed", defaultValue = "1", description = "Random seed (default: ${DEFAULT-VALUE}).")
         long seed;
 
+        @Option(names = "--prototype", description = "Time the benchmark package's contiguous-rows lasso kernel "
+                + "prototype instead of the path engine.")
+        boolean prototype;
+
         @Option(names = "--json", description = "Write the result as JSON to this file.")
         File json;
 
@@ -69,7 +73,7 @@ public final class BenchCommand implements Runnable {
         public Integer call() throws IOException {
             PathResult r;
             try {
-                r = PathBench.run(features, rows, steps, repeat, seed, warmupSeconds);
+                r = PathBench.run(features, rows, steps, repeat, seed, warmupSeconds, prototype);
             } catch (IllegalArgumentException e) {
                 spec.commandLine().getErr().println("bench path: " + e.getMessage());
                 return 2;
