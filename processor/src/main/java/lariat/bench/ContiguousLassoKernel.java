@@ -22,8 +22,9 @@ import lariat.path.GramInput;
  *       G[j, active[k]] over every row j of the full matrix.</li>
  *   <li>A column joining at position |A| swaps two positions in the |A| active rows (|A| strided writes)
  *       and copies its own Gram row once (p reads); a column leaving shifts the later active rows and
- *       positions down by one. The Cholesky factor of G_AA is grown by one forward solve and downdated by
- *       Givens rotations, as in the engine.</li>
+ *       positions down by one (memmoves). The Cholesky factor of G_AA is grown by one forward solve and downdated by
+ *       Givens rotations, as in the engine. v = L⁻¹s grows by one entry per join (O(|A|)), and the back
+ *       substitution q = L⁻ᵀv reads L by rows (axpy form), never down a column with stride p.</li>
  * </ul>
  *
  * <p>Workspaces are sized once for p; {@link #fit} allocates only when its knot buffers grow. Not thread-safe.
@@ -41,6 +42,7 @@ final class ContiguousLassoKernel {
     private final double[] beta;
     private final double[] signs;
     private final double[] q;
+    private final double[] v;
     private final double[] w;
     private final double[] a;
     private int size;
@@ -64,6 +66,7 @@ final class ContiguousLassoKernel {
         this.beta = new double[p];
         this.signs = new double[p];
         this.q = new double[p];
+        this.v = new double[p];
         this.w = new double[p];
         this.a = new double[p];
     }
@@ -189,14 +192,10 @@ final class ContiguousLassoKernel {
         double norm = 0;
         int lk = k * p;
         for (int i = 0; i < k; i++) {
-            double v = rows[dst + i];
             int li = i * p;
-            for (int m = 0; m < i; m++) {
-                v -= l[li + m] * l[lk + m];
-            }
-            v /= l[li + i];
-            l[lk + i] = v;
-            norm += v * v;
+            double x = (rows[dst + i] - dot(l, li, l, lk, i)) / l[li + i];
+            l[lk + i] = x;
+            norm += x * x;
         }
         double pivotSquared = rows[dst + k] - norm;
         if (!(pivotSquared > PIVOT_TOLERANCE * rows[dst + k])) {
@@ -205,6 +204,7 @@ final class ContiguousLassoKernel {
         l[lk + k] = Math.sqrt(pivotSquared);
         signs[k] = chat[k] >= 0 ? 1 : -1;
         size++;
+        extendV();
         return true;
     }
 
@@ -268,40 +268,89 @@ final class ContiguousLassoKernel {
         return hitter;
     }
 
-    /** q = G_AA⁻¹s, A_A = (sᵀq)^(−1/2), w = A_A q, and a_I = Σ_k w_k rows[k][I] over inactive positions I. */
+    /**
+     * v = L⁻¹s (kept up to date by {@link #extendV()}, refreshed after a drop), q = L⁻ᵀv by a back
+     * substitution that reads rows of L (axpy form, contiguous), A_A = ‖v‖⁻¹ since sᵀG_AA⁻¹s = ‖v‖²,
+     * w = A_A q, and a_I = Σ_k w_k rows[k][I] over the inactive positions I, four rows per pass over a.
+     */
     private void direction() {
         int k = size;
-        for (int i = 0; i < k; i++) {
-            double v = signs[i];
-            int li = i * p;
-            for (int m = 0; m < i; m++) {
-                v -= l[li + m] * q[m];
-            }
-            q[i] = v / l[li + i];
-        }
-        for (int i = k - 1; i >= 0; i--) {
-            double v = q[i];
-            for (int m = i + 1; m < k; m++) {
-                v -= l[m * p + i] * q[m];
-            }
-            q[i] = v / l[i * p + i];
-        }
         double sq = 0;
         for (int i = 0; i < k; i++) {
-            sq += signs[i] * q[i];
+            q[i] = v[i];
+            sq += v[i] * v[i];
+        }
+        for (int i = k - 1; i >= 0; i--) {
+            int li = i * p;
+            double x = q[i] / l[li + i];
+            q[i] = x;
+            for (int m = 0; m < i; m++) {
+                q[m] -= l[li + m] * x;
+            }
         }
         directionScale = 1 / Math.sqrt(sq);
         for (int i = 0; i < k; i++) {
             w[i] = directionScale * q[i];
         }
         java.util.Arrays.fill(a, k, p, 0.0);
-        for (int r = 0; r < k; r++) {
+        int r = 0;
+        for (; r + 3 < k; r += 4) {
+            double w0 = w[r];
+            double w1 = w[r + 1];
+            double w2 = w[r + 2];
+            double w3 = w[r + 3];
+            int r0 = r * p;
+            int r1 = r0 + p;
+            int r2 = r1 + p;
+            int r3 = r2 + p;
+            for (int j = k; j < p; j++) {
+                a[j] += w0 * rows[r0 + j] + w1 * rows[r1 + j] + w2 * rows[r2 + j] + w3 * rows[r3 + j];
+            }
+        }
+        for (; r < k; r++) {
             double wr = w[r];
             int row = r * p;
             for (int j = k; j < p; j++) {
                 a[j] += wr * rows[row + j];
             }
         }
+    }
+
+    /** Appends entry |A| − 1 of v = L⁻¹s after a column joined (one row of the forward solve). */
+    private void extendV() {
+        int i = size - 1;
+        int li = i * p;
+        v[i] = (signs[i] - dot(l, li, v, 0, i)) / l[li + i];
+    }
+
+    /** Recomputes v = L⁻¹s by a full forward solve (after a drop changed L). */
+    private void refreshV() {
+        for (int i = 0; i < size; i++) {
+            int li = i * p;
+            v[i] = (signs[i] - dot(l, li, v, 0, i)) / l[li + i];
+        }
+    }
+
+    /**
+     * Σ_{m &lt; n} x[xo + m]·y[yo + m] with four partial sums, so the loop is not bound by the latency of one
+     * chain of dependent additions (the JIT does not reorder floating-point sums by itself).
+     */
+    private static double dot(double[] x, int xo, double[] y, int yo, int n) {
+        double s0 = 0;
+        double s1 = 0;
+        double s2 = 0;
+        double s3 = 0;
+        int m = 0;
+        for (; m + 3 < n; m += 4) {
+            s0 += x[xo + m] * y[yo + m];
+            s1 += x[xo + m + 1] * y[yo + m + 1];
+            s2 += x[xo + m + 2] * y[yo + m + 2];
+            s3 += x[xo + m + 3] * y[yo + m + 3];
+        }
+        for (; m < n; m++) {
+            s0 += x[xo + m] * y[yo + m];
+        }
+        return (s0 + s1) + (s2 + s3);
     }
 
     private double dropStep() {
@@ -321,16 +370,23 @@ final class ContiguousLassoKernel {
         return denominator > 0 ? Math.max(numerator, 0) / denominator : Double.POSITIVE_INFINITY;
     }
 
-    /** Moves active position m to position |A| − 1, drops it from A and downdates the factor. */
+    /**
+     * Moves active position m to position |A| − 1 (later positions shift down by one, in every active row
+     * with one memmove each), drops it from A and downdates the factor.
+     */
     private void leave(int m) {
         int last = size - 1;
-        for (int x = m; x < last; x++) {
-            swapPositions(x, x + 1);
-            System.arraycopy(rows, (x + 1) * p, rows, x * p, p);
-            double ts = signs[x];
-            signs[x] = signs[x + 1];
-            signs[x + 1] = ts;
+        for (int r = 0; r < size; r++) {
+            int row = r * p;
+            double v = rows[row + m];
+            System.arraycopy(rows, row + m + 1, rows, row + m, last - m);
+            rows[row + last] = v;
         }
+        System.arraycopy(rows, (m + 1) * p, rows, m * p, (last - m) * p);
+        rotateLeft(column, m, last);
+        rotateLeft(chat, m, last);
+        rotateLeft(beta, m, last);
+        rotateLeft(signs, m, last);
         for (int i = m; i < last; i++) {
             System.arraycopy(l, (i + 1) * p, l, i * p, i + 2);
         }
@@ -338,6 +394,19 @@ final class ContiguousLassoKernel {
         for (int i = m; i < size; i++) {
             rotate(i);
         }
+        refreshV();
+    }
+
+    private static void rotateLeft(double[] x, int from, int to) {
+        double v = x[from];
+        System.arraycopy(x, from + 1, x, from, to - from);
+        x[to] = v;
+    }
+
+    private static void rotateLeft(int[] x, int from, int to) {
+        int v = x[from];
+        System.arraycopy(x, from + 1, x, from, to - from);
+        x[to] = v;
     }
 
     /** Zeroes L(i, i+1) by rotating columns i and i+1 of rows i … |A|−1 (Givens). */
