@@ -8,7 +8,8 @@ import lariat.path.PathOptions;
 /**
  * Times the lasso path refit alone: {@link PathEngine#fit} on a prebuilt {@link GramInput} (the Gram build
  * is not timed) of a {@link SyntheticRows} problem. Untimed warm-up fits of the same problem run first
- * so the JIT has compiled the engine: at least one, and more until {@code warmupSeconds} have passed.
+ * so the JIT has compiled the engine, until {@code warmupSeconds} have passed (the last may overrun; none
+ * for 0, which suits fits of several seconds, whose loops are compiled during their first steps).
  */
 public final class PathBench {
 
@@ -49,33 +50,40 @@ public final class PathBench {
         PathOptions options = b.build();
         PathEngine engine = new PathEngine(features);
         long warmStart = System.nanoTime();
-        do {
+        while ((System.nanoTime() - warmStart) * 1e-9 < warmupSeconds) {
             engine.fit(input, options);
-        } while ((System.nanoTime() - warmStart) * 1e-9 < warmupSeconds);
+        }
         double[] seconds = new double[repeat];
+        double[] cpu = new double[repeat];
         LassoPath path = null;
         for (int r = 0; r < repeat; r++) {
+            long c0 = CpuClock.nanos();
             long t0 = System.nanoTime();
             path = engine.fit(input, options);
             seconds[r] = (System.nanoTime() - t0) * 1e-9;
+            cpu[r] = (CpuClock.nanos() - c0) * 1e-9;
         }
         int actual = path.knots().size() - 1;
         int active = path.last().active().length;
-        return PathResult.of(features, rows, actual, active, path.stopReason().name(), Timings.of(seconds));
+        return PathResult.of(features, rows, actual, active, path.stopReason().name(), Timings.of(seconds),
+                Timings.of(cpu));
     }
 
     private static PathResult runPrototype(GramInput input, int steps, int repeat, double warmupSeconds) {
         ContiguousLassoKernel kernel = new ContiguousLassoKernel(input.p());
         long warmStart = System.nanoTime();
-        do {
+        while ((System.nanoTime() - warmStart) * 1e-9 < warmupSeconds) {
             kernel.fit(input, steps);
-        } while ((System.nanoTime() - warmStart) * 1e-9 < warmupSeconds);
+        }
         double[] seconds = new double[repeat];
+        double[] cpu = new double[repeat];
         int actual = 0;
         for (int r = 0; r < repeat; r++) {
+            long c0 = CpuClock.nanos();
             long t0 = System.nanoTime();
             actual = kernel.fit(input, steps);
             seconds[r] = (System.nanoTime() - t0) * 1e-9;
+            cpu[r] = (CpuClock.nanos() - c0) * 1e-9;
         }
         int active = 0;
         for (double b : kernel.standardizedCoefficients()) {
@@ -83,6 +91,6 @@ public final class PathBench {
         }
         String reason = kernel.stoppedOnPivot() ? "PIVOT" : steps > 0 && actual >= steps ? "MAX_STEPS" : "COMPLETE";
         return PathResult.of(input.p(), (int) input.count(), actual, active, "PROTOTYPE_" + reason,
-                Timings.of(seconds));
+                Timings.of(seconds), Timings.of(cpu));
     }
 }

@@ -55,8 +55,8 @@ public final class BenchCommand implements Runnable {
         @Option(names = "--repeat", defaultValue = "5", description = "Timed refits (default: ${DEFAULT-VALUE}).")
         int repeat;
 
-        @Option(names = "--warmup-s", defaultValue = "1.0", description = "Seconds of untimed warm-up refits, at "
-                + "least one refit (default: ${DEFAULT-VALUE}).")
+        @Option(names = "--warmup-s", defaultValue = "1.0", description = "Seconds of untimed warm-up refits; 0 for "
+                + "none (default: ${DEFAULT-VALUE}).")
         double warmupSeconds;
 
         @Option(names = "--seed", defaultValue = "1", description = "Random seed (default: ${DEFAULT-VALUE}).")
