@@ -18,10 +18,10 @@ import java.util.Arrays;
  * moments in which record i has weight w_i · 2^(−(T − t_i)/h), T the largest event time seen. When a block
  * is merged, let t_s be the state's largest event time and t_b = max(t_s, largest time in the block). The
  * state's W and C are scaled by f = 2^(−(t_b − t_s)/h) and Σ w² by f², and block row i enters with weight
- * w_i · 2^(−(t_b − t_i)/h), so a late record gets less weight. Factors are computed with
- * {@link StrictMath#pow} so that results are reproducible across platforms. A weight that underflows to
- * zero leaves the record counted but weightless; a state whose weight underflows becomes empty in weight.
- * With h = +∞ no weight is ever scaled.
+ * w_i · 2^(−(t_b − t_i)/h), so a late record gets less weight. The factors are computed in plain IEEE 754
+ * arithmetic from a fixed table, the same bits on every platform and without allocating. A weight that
+ * underflows to zero leaves the record counted but weightless; a state whose weight underflows becomes
+ * empty in weight. With h = +∞ no weight is ever scaled.
  *
  * <p>Canonical bytes ({@link #toBytes()}), big-endian: format version (1 byte, {@value #FORMAT_VERSION}),
  * width (int), block size (int), half-life in ms (double, +∞ for none), count (long), pending rows p (int),
@@ -251,11 +251,8 @@ public final class MomentStream {
         target.mergeBlock(pendingRows, decayedWeights, pendingTimes, n, stateFactor);
     }
 
-    /** 2^(−(later − earlier)/h) for later &gt;= earlier, exactly 1 when they are equal. */
     private double decay(long later, long earlier) {
-        long elapsed = later - earlier;
-        double dt = elapsed >= 0 ? (double) elapsed : (double) later - (double) earlier;
-        return StrictMath.pow(2.0, -dt / halfLifeMs);
+        return Decay.factor(later, earlier, halfLifeMs);
     }
 
     private void ensureCapacity(int rows) {

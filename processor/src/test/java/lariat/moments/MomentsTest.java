@@ -203,8 +203,8 @@ class MomentsTest {
      * Large offsets: columns near 1e6 with a spread of 1e-3, so μ²/σ² = 1e18 and the raw-sum form
      * Σ w z zᵀ − W μ μᵀ subtracts two numbers near 2e15 whose difference is about 2e-3: one unit in the last
      * place of 2e15 is 0.25 or more, so no correct digit can survive (Chan, Golub & LeVeque 1983 bound its
-     * relative error by n·ε·μ²/σ²). The centered updates keep their error near n·ε·|μ|/σ at worst and in
-     * practice far below; correlations must agree with the two-pass reference to 1e-9.
+     * relative error by n·ε·μ²/σ²). The centered updates, with the mean kept as a TwoSum pair, see
+     * deviations accurate to the spread; correlations must agree with the two-pass reference to 1e-9.
      */
     private static final double CORRELATION_TOLERANCE = 1e-9;
 

@@ -14,8 +14,14 @@ final class TwoPass {
     static final double WEIGHT_TOLERANCE = 1e-13;
     /** Tolerance on a mean, relative to |μ_i| + the column's standard deviation. */
     static final double MEAN_TOLERANCE = 1e-12;
-    /** Tolerance on C_ij, relative to sqrt(C_ii C_jj). */
+    /**
+     * Tolerance on C_ij, relative to sqrt(C_ii C_jj), plus an absolute floor: the reference's own mean can be
+     * off by a few units in the last place (e_i), which moves its co-moment by W·e_i·e_j, visible only when
+     * the spread is that small (a single row, whose exact co-moment is 0).
+     */
     static final double COMOMENT_TOLERANCE = 1e-11;
+    /** Units in the last place by which the reference's rounded mean may miss the exact mean. */
+    static final double REFERENCE_ULPS = 4.0;
 
     final double totalWeight;
     final double sumSquaredWeights;
@@ -75,7 +81,8 @@ final class TwoPass {
         for (int i = 0; i < width; i++) {
             for (int j = 0; j < width; j++) {
                 double scale = Math.sqrt(comoment[i * width + i] * comoment[j * width + j]);
-                assertEquals(comoment[i * width + j], m.comoment(i, j), COMOMENT_TOLERANCE * scale,
+                double floor = REFERENCE_ULPS * REFERENCE_ULPS * totalWeight * Math.ulp(mean[i]) * Math.ulp(mean[j]);
+                assertEquals(comoment[i * width + j], m.comoment(i, j), COMOMENT_TOLERANCE * scale + floor,
                         "comoment " + i + "," + j);
             }
         }
