@@ -7,6 +7,7 @@ import picocli.CommandLine.Command;
 @Command(name = "lariat", mixinStandardHelpOptions = true,
         subcommands = {
             AuditCommand.class,
+            BenchCommand.class,
             BrokerCommand.class,
             ConfigDocCommand.class,
             FitCommand.class,

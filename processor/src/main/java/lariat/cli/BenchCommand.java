@@ -1,0 +1,131 @@
+package lariat.cli;
+
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.SerializationFeature;
+import java.io.File;
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.util.Map;
+import java.util.concurrent.Callable;
+import lariat.bench.MomentsBench;
+import lariat.bench.MomentsResult;
+import lariat.bench.PathBench;
+import lariat.bench.PathResult;
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+
+/** {@code lariat bench}: speed of the path refit and of the moments update on seeded synthetic data. */
+@Command(name = "bench", mixinStandardHelpOptions = true,
+        description = "Benchmarks on synthetic data: Gaussian rows, 10% true nonzeros, seeded.",
+        subcommands = {BenchCommand.Path.class, BenchCommand.MomentsUpdate.class})
+public final class BenchCommand implements Runnable {
+
+    @CommandLine.Spec
+    CommandLine.Model.CommandSpec spec;
+
+    @Override
+    public void run() {
+        spec.commandLine().usage(spec.commandLine().getOut());
+    }
+
+    static void writeJson(File out, Map<String, Object> json) throws IOException {
+        if (out != null) {
+            new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT).writeValue(out, json);
+        }
+    }
+
+    /** {@code lariat bench path}. */
+    @Command(name = "path", mixinStandardHelpOptions = true,
+            description = "Time the lasso path refit from a prebuilt Gram matrix (the Gram build is not timed).")
+    static final class Path implements Callable<Integer> {
+        @CommandLine.Spec
+        CommandLine.Model.CommandSpec spec;
+
+        @Option(names = "--features", required = true, description = "Number of predictor columns p.")
+        int features;
+
+        @Option(names = "--rows", required = true, description = "Number of synthetic rows n.")
+        int rows;
+
+        @Option(names = "--steps", defaultValue = "0", description = "Maximum path steps; 0 for the whole path "
+                + "(default: ${DEFAULT-VALUE}).")
+        int steps;
+
+        @Option(names = "--repeat", defaultValue = "5", description = "Timed refits (default: ${DEFAULT-VALUE}).")
+        int repeat;
+
+        @Option(names = "--warmup-s", defaultValue = "1.0", description = "Seconds of untimed warm-up refits; 0 for "
+                + "none (default: ${DEFAULT-VALUE}).")
+        double warmupSeconds;
+
+        @Option(names = "--seed", defaultValue = "1", description = "Random seed (default: ${DEFAULT-VALUE}).")
+        long seed;
+
+        @Option(names = "--prototype", description = "Time the benchmark package's contiguous-rows lasso kernel "
+                + "prototype instead of the path engine.")
+        boolean prototype;
+
+        @Option(names = "--json", description = "Write the result as JSON to this file.")
+        File json;
+
+        @Override
+        public Integer call() throws IOException {
+            PathResult r;
+            try {
+                r = PathBench.run(features, rows, steps, repeat, seed, warmupSeconds, prototype);
+            } catch (IllegalArgumentException e) {
+                spec.commandLine().getErr().println("bench path: " + e.getMessage());
+                return 2;
+            }
+            PrintWriter out = spec.commandLine().getOut();
+            out.print(r.table());
+            out.flush();
+            writeJson(json, r.toJson());
+            return 0;
+        }
+    }
+
+    /** {@code lariat bench moments}. */
+    @Command(name = "moments", mixinStandardHelpOptions = true,
+            description = "Time the streaming moments update over z = (x, y) of width features + 1.")
+    static final class MomentsUpdate implements Callable<Integer> {
+        @CommandLine.Spec
+        CommandLine.Model.CommandSpec spec;
+
+        @Option(names = "--features", required = true, description = "Number of predictor columns p.")
+        int features;
+
+        @Option(names = "--rows", required = true, description = "Number of synthetic records n.")
+        int rows;
+
+        @Option(names = "--block-size", defaultValue = "" + MomentsBench.DEFAULT_BLOCK_SIZE,
+                description = "Records per moments block (default: ${DEFAULT-VALUE}).")
+        int blockSize;
+
+        @Option(names = "--repeat", defaultValue = "3", description = "Timed passes (default: ${DEFAULT-VALUE}).")
+        int repeat;
+
+        @Option(names = "--seed", defaultValue = "1", description = "Random seed (default: ${DEFAULT-VALUE}).")
+        long seed;
+
+        @Option(names = "--json", description = "Write the result as JSON to this file.")
+        File json;
+
+        @Override
+        public Integer call() throws IOException {
+            MomentsResult r;
+            try {
+                r = MomentsBench.run(features, rows, blockSize, repeat, seed);
+            } catch (IllegalArgumentException e) {
+                spec.commandLine().getErr().println("bench moments: " + e.getMessage());
+                return 2;
+            }
+            PrintWriter out = spec.commandLine().getOut();
+            out.print(r.table());
+            out.flush();
+            writeJson(json, r.toJson());
+            return 0;
+        }
+    }
+}
