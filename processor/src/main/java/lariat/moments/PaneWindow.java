@@ -8,7 +8,7 @@ import java.nio.ByteBuffer;
  *
  * <p>Event time t falls in pane ⌊t / paneMs⌋. The window holds the {@code panes} most recent panes, ending
  * at the pane of the largest event time accepted so far; a record whose pane lies before the window is
- * dropped ({@link #add} returns false), and panes that slide out are cleared. Each pane accumulates its
+ * dropped ({@link #add} returns false), and panes that fall out of the window are cleared. Each pane accumulates its
  * records with West's (1979) one-record update; {@link #merged()} merges the live panes oldest first
  * (Chan, Golub &amp; LeVeque 1979), so the result is a deterministic function of the ordered records.
  *

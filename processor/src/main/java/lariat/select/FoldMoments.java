@@ -12,7 +12,7 @@ import lariat.moments.Moments;
  *
  * <p>Every fold is an {@link Accumulator} of one kind: plain moments, or the same kind and parameters as a
  * key's main accumulator ({@link #FoldMoments(Accumulator, int)}: same block size and half-life, or same
- * window), so the folds forget and slide exactly as the main moments do. Folds are read aligned on the
+ * window), so the folds forget, or move with the window, exactly as the main moments do. Folds are read aligned on the
  * largest event time any fold has seen ({@link Accumulator#momentsAsOf}), so that with forgetting every
  * record carries weight w · 2^(−(T − t)/h) in its fold and the merge of all folds equals the main moments up
  * to rounding. Mutable, not thread-safe.
