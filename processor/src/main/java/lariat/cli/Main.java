@@ -4,7 +4,12 @@ import picocli.CommandLine;
 import picocli.CommandLine.Command;
 
 /** Entry point of the {@code lariat} command line. */
-@Command(name = "lariat", mixinStandardHelpOptions = true, subcommands = {BrokerCommand.class, ProduceCommand.class},
+@Command(name = "lariat", mixinStandardHelpOptions = true,
+        subcommands = {
+            BrokerCommand.class,
+            ProduceCommand.class,
+            RunCommand.class,
+        },
         description = "Streaming lasso-path feature selection for Kafka pipelines.")
 public final class Main implements Runnable {
 

@@ -146,6 +146,10 @@ public final class StageConfig {
     public static final ConfigKey<String> STAGE_ID = ConfigKey.of("stage.id", ValueType.STRING, "lariat",
             s -> s.matches("[A-Za-z0-9._-]{1,200}"), "1-200 of [A-Za-z0-9._-]",
             "Name of this stage; prefix of its transactional ids.", false);
+    public static final ConfigKey<String> STAGE_INSTANCE = ConfigKey.of("stage.instance", ValueType.STRING, "0",
+            s -> s.matches("[A-Za-z0-9._-]{1,100}"), "1-100 of [A-Za-z0-9._-]",
+            "Name of this instance of the stage, stable across its restarts; transactional.id = stage.id-stage.instance.",
+            false);
     public static final ConfigKey<String> GROUP_ID = string("group.id", "", false,
             "Consumer group of the input topic; empty = stage.id.", false);
     public static final ConfigKey<Integer> METRICS_PORT = intRange("metrics.port", "9400", 0, 65535,
@@ -165,7 +169,7 @@ public final class StageConfig {
             SELECT_RULE, SELECT_RELATIVE_PENALTY, SELECT_MAX_ACTIVE, SELECT_TARGET_R2, SELECT_CV_FOLDS,
             SELECT_CV_ONE_SE, SELECT_REFIT,
             MODEL_TOPIC, ALERT_TOPIC, SNAPSHOT_TOPIC, DEADLETTER_TOPIC, SNAPSHOT_CHUNK_BYTES, ALERT_PERSIST_REFITS,
-            STAGE_ID, GROUP_ID, METRICS_PORT, SHUTDOWN_TIMEOUT_MS);
+            STAGE_ID, STAGE_INSTANCE, GROUP_ID, METRICS_PORT, SHUTDOWN_TIMEOUT_MS);
 
     private static final Map<String, ConfigKey<?>> BY_NAME = byName();
     private static final String HASH_VERSION = "lariat.config.hash.v1";
