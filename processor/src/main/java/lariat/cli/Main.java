@@ -7,6 +7,7 @@ import picocli.CommandLine.Command;
 @Command(name = "lariat", mixinStandardHelpOptions = true,
         subcommands = {
             BrokerCommand.class,
+            DemoCommand.class,
             FitCommand.class,
             ProduceCommand.class,
             RunCommand.class,
