@@ -305,7 +305,7 @@ public final class DemoRun {
         for (StationLog log : logs.values()) {
             ModelVersion mv = log.latest();
             if (mv != null) {
-                LatestPath path = LatestPath.of(plan.scenario(), config, log.station(), mv.getRecordCount(),
+                LatestPath path = LatestPath.of(plan.scenario(), config, log.station(), mv.getChannels(), mv.getRecordCount(),
                         mv.getMomentsFingerprint());
                 paths.put(log.station(), path);
                 unverified += path.verified() ? 0 : 1;

@@ -19,7 +19,8 @@ import lariat.stage.RefitRecipe;
 /**
  * The whole lasso path of a station's latest published version, which the model record only
  * summarizes: the station's first {@code recordCount} readings are replayed from the scenario
- * into moments built as the stage builds them (same block size and half-life), fitted by the
+ * into moments built as the stage builds them (the version's channel order with the target last,
+ * same block size and half-life), fitted by the
  * same recipe, and accepted only if the moments' fingerprint equals the one the version
  * carries, so the plotted path is the path of the published model and not an approximation.
  *
@@ -42,15 +43,27 @@ final class LatestPath {
      * Replays and fits; when the fingerprint differs from {@code fingerprint}, returns an empty
      * path with {@link #verified()} false.
      */
-    static LatestPath of(Scenario scenario, StageConfig config, String station, long recordCount,
-            String fingerprint) {
-        MomentStream stream = new MomentStream(scenario.columns().size(), config.get(StageConfig.MOMENTS_BLOCK_RECORDS),
+    static LatestPath of(Scenario scenario, StageConfig config, String station, List<String> channels,
+            long recordCount, String fingerprint) {
+        int[] column = new int[channels.size() + 1];
+        for (int j = 0; j < channels.size(); j++) {
+            column[j] = scenario.columns().indexOf(channels.get(j));
+            if (column[j] < 0) {
+                return new LatestPath(List.of(), Double.NaN, false);
+            }
+        }
+        column[channels.size()] = scenario.columns().indexOf(scenario.target());
+        MomentStream stream = new MomentStream(column.length, config.get(StageConfig.MOMENTS_BLOCK_RECORDS),
                 halfLife(config));
+        double[] z = new double[column.length];
         Iterator<StationRow> rows = scenario.rows();
         while (stream.count() < recordCount && rows.hasNext()) {
             StationRow r = rows.next();
             if (r.station().equals(station)) {
-                stream.add(r.values(), r.weight(), r.timeMs());
+                for (int j = 0; j < column.length; j++) {
+                    z[j] = r.value(column[j]);
+                }
+                stream.add(z, r.weight(), r.timeMs());
             }
         }
         Moments m = stream.snapshot();
@@ -58,7 +71,7 @@ final class LatestPath {
             return new LatestPath(List.of(), Double.NaN, false);
         }
         KeyFit fit = KeyFit.of(m, null, RefitRecipe.of(config));
-        return new LatestPath(points(fit, m, scenario.channels()), fit.selected().relativePenalty(), true);
+        return new LatestPath(points(fit, m, channels), fit.selected().relativePenalty(), true);
     }
 
     private static double halfLife(StageConfig c) {
