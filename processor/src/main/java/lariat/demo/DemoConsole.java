@@ -76,6 +76,12 @@ final class DemoConsole {
         out.flush();
     }
 
+    /** Text wrapped at {@value #WIDTH} columns, continuation lines indented. */
+    void paragraph(String text) {
+        String[] words = text.split(" ");
+        lines(words[0], List.of(words).subList(1, words.length));
+    }
+
     /** One line for a new model version: what changed against the version before it. */
     void version(ModelVersion mv, Map<String, Double> before) {
         Map<String, Double> now = StationLog.coefficients(mv);

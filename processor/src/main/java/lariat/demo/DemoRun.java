@@ -198,11 +198,11 @@ public final class DemoRun {
 
     private void describe() {
         Scenario s = plan.scenario();
-        console.line(String.format(Locale.ROOT, "Scenario: %d pumping stations x %d readings, one a minute, %s to %s,",
-                s.spec().stations(), s.spec().recordsPerStation(), DemoConsole.longTime(s.timeOfStep(0)),
-                DemoConsole.longTime(s.timeOfStep(s.spec().recordsPerStation() - 1))));
-        console.line(String.format(Locale.ROOT, "seed %d; target %s, %d candidate channels.", s.spec().seed(),
-                s.target(), s.channels().size()));
+        console.line(String.format(Locale.ROOT, "Scenario: %d pumping stations x %d readings, one a minute,",
+                s.spec().stations(), s.spec().recordsPerStation()));
+        console.line(String.format(Locale.ROOT, "%s to %s, seed %d; target %s, %d candidates.",
+                DemoConsole.longTime(s.timeOfStep(0)), DemoConsole.longTime(s.timeOfStep(s.spec().recordsPerStation() - 1)),
+                s.spec().seed(), s.target(), s.channels().size()));
         for (InjectedChange c : s.truth().changes()) {
             console.line(String.format(Locale.ROOT, "  injected at %s: %s %s", DemoConsole.longTime(c.timeMs()),
                     c.station(), c.describe()));
@@ -215,7 +215,7 @@ public final class DemoRun {
                 DemoPlan.HALF_LIFE_HOURS, DemoPlan.RELATIVE_PENALTY));
         console.line(String.format(Locale.ROOT, "alert once a new active set has held for %d refits.",
                 DemoPlan.ALERT_PERSIST_REFITS));
-        console.line("Lines: v<version> <station> <event time> R2 <r2> <n> active, then +entered -left ~flipped.");
+        console.line("Lines: v<version> <station> <event time> R2 <r2> <n> active +in -out ~flipped");
     }
 
     private void send(String servers, double rate) {
@@ -317,10 +317,10 @@ public final class DemoRun {
         for (String l : SummaryTable.render(report).split("\n")) {
             console.line(l);
         }
-        console.line(SummaryTable.totalsLine(totals));
+        console.paragraph(SummaryTable.totalsLine(totals));
         Path html = DemoReportWriter.write(report, reportDir);
         console.line("Report: " + html + " (and report.json)");
-        console.line("Caution: " + CAUTION);
+        console.paragraph("Caution: " + CAUTION);
         return new Outcome(report, html, totals.clean());
     }
 

@@ -56,7 +56,7 @@ final class SummaryTable {
     }
 
     static String render(DemoReport r) {
-        TextTable table = new TextTable(List.of("station", "vers", "alerts", "injected change", "at", "detected",
+        TextTable table = new TextTable(List.of("station", "vers", "alerts", "injected change", "at", "found",
                 "delay"), List.of(TextTable.Align.LEFT, TextTable.Align.RIGHT, TextTable.Align.RIGHT,
                 TextTable.Align.LEFT, TextTable.Align.LEFT, TextTable.Align.LEFT, TextTable.Align.RIGHT));
         for (StationReport s : r.stations()) {
