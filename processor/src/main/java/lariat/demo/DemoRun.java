@@ -198,11 +198,11 @@ public final class DemoRun {
 
     private void describe() {
         Scenario s = plan.scenario();
-        console.line(String.format(Locale.ROOT, "Scenario: %d pumping stations x %d readings, one a minute,",
-                s.spec().stations(), s.spec().recordsPerStation()));
-        console.line(String.format(Locale.ROOT, "%s to %s, seed %d; target %s, %d candidates.",
+        console.line(String.format(Locale.ROOT, "Scenario: %d pumping stations x %d readings, one a minute, %d channels,",
+                s.spec().stations(), s.spec().recordsPerStation(), s.channels().size()));
+        console.line(String.format(Locale.ROOT, "%s to %s, seed %d, target %s.",
                 DemoConsole.longTime(s.timeOfStep(0)), DemoConsole.longTime(s.timeOfStep(s.spec().recordsPerStation() - 1)),
-                s.spec().seed(), s.target(), s.channels().size()));
+                s.spec().seed(), s.target()));
         for (InjectedChange c : s.truth().changes()) {
             console.line(String.format(Locale.ROOT, "  injected at %s: %s %s", DemoConsole.longTime(c.timeMs()),
                     c.station(), c.describe()));

@@ -64,7 +64,7 @@ final class SummaryTable {
             String alerts = Integer.toString(s.alerts().size());
             if (s.changes().isEmpty()) {
                 table.row(s.station(), versions, alerts, "none", "-",
-                        s.alerts().isEmpty() ? "no alert" : Detection.otherAlerts(s) + " FALSE", "-");
+                        s.alerts().isEmpty() ? "-" : Detection.otherAlerts(s) + " FALSE", "-");
                 continue;
             }
             boolean first = true;
