@@ -10,6 +10,7 @@ import picocli.CommandLine.Command;
             BenchCommand.class,
             BrokerCommand.class,
             ConfigDocCommand.class,
+            DemoCommand.class,
             FitCommand.class,
             HistoryCommand.class,
             ProduceCommand.class,
