@@ -2,6 +2,9 @@ package lariat.demo;
 
 import java.io.IOException;
 import java.io.PrintWriter;
+import java.io.Writer;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Duration;
 import java.util.LinkedHashMap;
@@ -50,6 +53,9 @@ public final class DemoRun {
 
     private final DemoPlan plan;
     private final String bootstrapServers;
+    /** File name of the run's stage configuration inside the report folder. */
+    static final String STAGE_PROPERTIES = "stage.properties";
+
     private final Path reportDir;
     private final DemoConsole console;
     private final boolean terminal;
@@ -132,7 +138,9 @@ public final class DemoRun {
     }
 
     private Outcome runOn(String servers) throws IOException, InterruptedException {
-        StageConfig config = StageConfig.of(plan.stageProperties(servers));
+        Map<String, String> stageProperties = plan.stageProperties(servers);
+        StageConfig config = StageConfig.of(stageProperties);
+        writeStageProperties(stageProperties);
         createTopics(servers, config);
         describe();
         Stage stage = StageAssembly.create(config, Path.of(""));
@@ -320,8 +328,23 @@ public final class DemoRun {
         console.paragraph(SummaryTable.totalsLine(totals));
         Path html = DemoReportWriter.write(report, reportDir);
         console.line("Report: " + html + " (and report.json)");
+        console.line("Configuration: " + reportDir.resolve(STAGE_PROPERTIES));
         console.paragraph("Caution: " + CAUTION);
         return new Outcome(report, html, totals.clean());
+    }
+
+    /**
+     * Writes the exact stage configuration of this run beside the report, so that, on a cluster
+     * that outlives the demo ({@code --bootstrap-servers}), {@code lariat audit --config} can
+     * replay and check every published version.
+     */
+    private void writeStageProperties(Map<String, String> stageProperties) throws IOException {
+        Files.createDirectories(reportDir);
+        Properties props = new Properties();
+        props.putAll(stageProperties);
+        try (Writer w = Files.newBufferedWriter(reportDir.resolve(STAGE_PROPERTIES), StandardCharsets.UTF_8)) {
+            props.store(w, "Lariat demo: the stage configuration of this run");
+        }
     }
 
     private String description(int unverified) {
