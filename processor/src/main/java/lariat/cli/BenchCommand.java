@@ -11,6 +11,8 @@ import lariat.bench.MomentsBench;
 import lariat.bench.MomentsResult;
 import lariat.bench.PathBench;
 import lariat.bench.PathResult;
+import lariat.bench.StageBench;
+import lariat.bench.StageBenchResult;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
@@ -18,7 +20,7 @@ import picocli.CommandLine.Option;
 /** {@code lariat bench}: speed of the path refit and of the moments update on seeded synthetic data. */
 @Command(name = "bench", mixinStandardHelpOptions = true,
         description = "Benchmarks on synthetic data: Gaussian rows, 10% true nonzeros, seeded.",
-        subcommands = {BenchCommand.Path.class, BenchCommand.MomentsUpdate.class})
+        subcommands = {BenchCommand.Path.class, BenchCommand.MomentsUpdate.class, BenchCommand.StageThroughput.class})
 public final class BenchCommand implements Runnable {
 
     @CommandLine.Spec
@@ -119,6 +121,60 @@ public final class BenchCommand implements Runnable {
                 r = MomentsBench.run(features, rows, blockSize, repeat, seed);
             } catch (IllegalArgumentException e) {
                 spec.commandLine().getErr().println("bench moments: " + e.getMessage());
+                return 2;
+            }
+            PrintWriter out = spec.commandLine().getOut();
+            out.print(r.table());
+            out.flush();
+            writeJson(json, r.toJson());
+            return 0;
+        }
+    }
+
+    /** {@code lariat bench stage}. */
+    @Command(name = "stage", mixinStandardHelpOptions = true,
+            description = {"Throughput of the stage next to a plain read_committed consumer on the same topic.",
+                "Loads N Avro single-object readings over K keys with P channels each into a new topic "
+                    + "(on an embedded broker unless --bootstrap-servers is given), then per round times a "
+                    + "plain consumer reading every record (no decoding) and a new stage (refit every 1000 "
+                    + "records of a key, BIC selection) from ready to the commit that covers the last offset."})
+    static final class StageThroughput implements Callable<Integer> {
+        @CommandLine.Spec
+        CommandLine.Model.CommandSpec spec;
+
+        @Option(names = "--features", required = true, description = "Feature channels per record P.")
+        int features;
+
+        @Option(names = "--keys", required = true, description = "Model keys K.")
+        int keys;
+
+        @Option(names = "--records", required = true, description = "Records N in all.")
+        int records;
+
+        @Option(names = "--partitions", defaultValue = "4", description = "Input partitions "
+                + "(default: ${DEFAULT-VALUE}).")
+        int partitions;
+
+        @Option(names = "--rounds", defaultValue = "2", description = "Rounds of consumer then stage; the last "
+                + "is reported (default: ${DEFAULT-VALUE}).")
+        int rounds;
+
+        @Option(names = "--seed", defaultValue = "1", description = "Random seed (default: ${DEFAULT-VALUE}).")
+        long seed;
+
+        @Option(names = "--bootstrap-servers", description = "Use this cluster instead of an embedded broker.")
+        String bootstrapServers;
+
+        @Option(names = "--json", description = "Write the result as JSON to this file.")
+        File json;
+
+        @Override
+        public Integer call() throws IOException, InterruptedException {
+            StageBenchResult r;
+            try {
+                r = StageBench.run(features, keys, records, partitions, rounds, seed, bootstrapServers);
+            } catch (IllegalArgumentException e) {
+                spec.commandLine().getErr().println("bench stage: " + e.getMessage());
                 return 2;
             }
             PrintWriter out = spec.commandLine().getOut();

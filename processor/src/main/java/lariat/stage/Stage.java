@@ -22,6 +22,7 @@ import java.nio.charset.StandardCharsets;
 import java.time.Duration;
 import java.util.ArrayList;
 import java.util.Collection;
+import java.util.Collections;
 import java.util.HashMap;
 import java.util.HashSet;
 import java.util.LinkedHashMap;
@@ -70,6 +71,7 @@ public final class Stage implements AutoCloseable {
     private volatile boolean ready;
     private boolean inTransaction;
     private volatile int metricsPort = -1;
+    private volatile java.util.function.Consumer<Map<TopicPartition, OffsetAndMetadata>> commitListener = o -> { };
     private Consumer<byte[], byte[]> consumer;
     private Consumer<byte[], byte[]> restoreConsumer;
     private Producer<byte[], byte[]> producer;
@@ -112,6 +114,21 @@ public final class Stage implements AutoCloseable {
 
     public StageMetrics metrics() {
         return metrics;
+    }
+
+    /**
+     * Sets what is told, on the loop thread right after each committed transaction, the input
+     * offsets that transaction committed (an unmodifiable map; only partitions read in that cycle).
+     * Replaces any earlier listener; set it before {@link #run()}. A listener must be quick and
+     * must not throw.
+     *
+     * @throws IllegalArgumentException if {@code listener} is null
+     */
+    public void onCommit(java.util.function.Consumer<Map<TopicPartition, OffsetAndMetadata>> listener) {
+        if (listener == null) {
+            throw new IllegalArgumentException("listener must not be null");
+        }
+        commitListener = listener;
     }
 
     /**
@@ -280,6 +297,7 @@ public final class Stage implements AutoCloseable {
         producer.commitTransaction();
         inTransaction = false;
         metrics.transactionCommitted();
+        commitListener.accept(Collections.unmodifiableMap(offsets));
         for (Map.Entry<KeyState, Integer> e : newChunkCounts.entrySet()) {
             e.getKey().chunkCount(e.getValue());
             e.getKey().clean();

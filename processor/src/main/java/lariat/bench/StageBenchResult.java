@@ -1,0 +1,162 @@
+package lariat.bench;
+
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * The outcome of {@code bench stage}: the shape of the input, the machine, and per round the
+ * plain consumer's and the stage's elapsed and process CPU time. The reported figures are the
+ * last round's. Immutable.
+ */
+public final class StageBenchResult {
+
+    /** One timed pass over every input record. */
+    static final class Phase {
+        final int records;
+        final double seconds;
+        final double cpuSeconds;
+        final long transactions;
+
+        private Phase(int records, double seconds, double cpuSeconds, long transactions) {
+            this.records = records;
+            this.seconds = seconds;
+            this.cpuSeconds = cpuSeconds;
+            this.transactions = transactions;
+        }
+
+        static Phase of(int records, double seconds, double cpuSeconds, long transactions) {
+            if (!(seconds > 0)) {
+                throw new IllegalArgumentException("seconds must be positive, got " + seconds);
+            }
+            return new Phase(records, seconds, cpuSeconds, transactions);
+        }
+
+        double recordsPerSecond() {
+            return records / seconds;
+        }
+    }
+
+    /** A plain-consumer pass and the stage pass after it. */
+    static final class Round {
+        final Phase consumer;
+        final Phase stage;
+
+        private Round(Phase consumer, Phase stage) {
+            this.consumer = consumer;
+            this.stage = stage;
+        }
+
+        static Round of(Phase consumer, Phase stage) {
+            return new Round(consumer, stage);
+        }
+
+        double ratio() {
+            return stage.recordsPerSecond() / consumer.recordsPerSecond();
+        }
+    }
+
+    private final int features;
+    private final int keys;
+    private final int records;
+    private final int partitions;
+    private final double meanValueBytes;
+    private final List<Round> rounds;
+    private final int processors;
+    private final double loadBefore;
+    private final double loadAfter;
+
+    private StageBenchResult(int features, int keys, int records, int partitions, double meanValueBytes,
+                             List<Round> rounds, int processors, double loadBefore, double loadAfter) {
+        this.features = features;
+        this.keys = keys;
+        this.records = records;
+        this.partitions = partitions;
+        this.meanValueBytes = meanValueBytes;
+        this.rounds = List.copyOf(rounds);
+        this.processors = processors;
+        this.loadBefore = loadBefore;
+        this.loadAfter = loadAfter;
+    }
+
+    static StageBenchResult of(int features, int keys, int records, int partitions, double meanValueBytes,
+                               List<Round> rounds, int processors, double loadBefore, double loadAfter) {
+        if (rounds.isEmpty()) {
+            throw new IllegalArgumentException("rounds must not be empty");
+        }
+        return new StageBenchResult(features, keys, records, partitions, meanValueBytes, rounds, processors,
+                loadBefore, loadAfter);
+    }
+
+    private Round last() {
+        return rounds.get(rounds.size() - 1);
+    }
+
+    /** The stage's records per second in the last round. */
+    public double stageRecordsPerSecond() {
+        return last().stage.recordsPerSecond();
+    }
+
+    /** The plain consumer's records per second in the last round. */
+    public double consumerRecordsPerSecond() {
+        return last().consumer.recordsPerSecond();
+    }
+
+    /**
+     * The JSON object: stage_records_per_s and consumer_records_per_s (the contract, last round),
+     * their ratio, the input's shape, the stage settings, the machine, and every round.
+     */
+    public Map<String, Object> toJson() {
+        Map<String, Object> m = new LinkedHashMap<>();
+        m.put("stage_records_per_s", stageRecordsPerSecond());
+        m.put("consumer_records_per_s", consumerRecordsPerSecond());
+        m.put("ratio", last().ratio());
+        m.put("features", features);
+        m.put("keys", keys);
+        m.put("records", records);
+        m.put("partitions", partitions);
+        m.put("mean_value_bytes", meanValueBytes);
+        m.put("stage_settings", new java.util.TreeMap<>(StageBench.STAGE_SETTINGS));
+        m.put("processors", processors);
+        m.put("load_average_before", loadBefore);
+        m.put("load_average_after", loadAfter);
+        List<Map<String, Object>> all = new ArrayList<>();
+        for (Round r : rounds) {
+            Map<String, Object> o = new LinkedHashMap<>();
+            o.put("consumer_s", r.consumer.seconds);
+            o.put("consumer_cpu_s", r.consumer.cpuSeconds);
+            o.put("consumer_records_per_s", r.consumer.recordsPerSecond());
+            o.put("stage_s", r.stage.seconds);
+            o.put("stage_cpu_s", r.stage.cpuSeconds);
+            o.put("stage_records_per_s", r.stage.recordsPerSecond());
+            o.put("stage_transactions", r.stage.transactions);
+            o.put("ratio", r.ratio());
+            all.add(o);
+        }
+        m.put("rounds", all);
+        return m;
+    }
+
+    /** One line per round and phase, the last round marked as the reported one, then the machine. */
+    public String table() {
+        StringBuilder b = new StringBuilder();
+        b.append(String.format("features %d, keys %d, records %d, partitions %d, mean value %.0f bytes%n", features,
+                keys, records, partitions, meanValueBytes));
+        b.append(String.format("%6s %-9s %10s %10s %15s %13s %7s%n", "round", "reader", "elapsed_s", "cpu_s",
+                "records_per_s", "transactions", "ratio"));
+        for (int i = 0; i < rounds.size(); i++) {
+            Round r = rounds.get(i);
+            String mark = i == rounds.size() - 1 ? "*" : "";
+            b.append(String.format("%6s %-9s %10.3f %10.3f %15.1f %13s %7s%n", (i + 1) + mark, "consumer",
+                    r.consumer.seconds, r.consumer.cpuSeconds, r.consumer.recordsPerSecond(), "-", ""));
+            b.append(String.format("%6s %-9s %10.3f %10.3f %15.1f %13d %7.3f%n", (i + 1) + mark, "stage",
+                    r.stage.seconds, r.stage.cpuSeconds, r.stage.recordsPerSecond(), r.stage.transactions,
+                    r.ratio()));
+        }
+        b.append(String.format("* reported round; ratio = stage / consumer records_per_s; cpu_s = whole process "
+                + "(broker included when embedded)%nprocessors %d, load average %.2f before, %.2f after%n",
+                processors, loadBefore, loadAfter));
+        return b.toString();
+    }
+}

@@ -1,0 +1,57 @@
+package lariat.bench;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertInstanceOf;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.util.List;
+import java.util.Map;
+
+import lariat.codec.Decoded;
+import lariat.codec.KeyLayouts;
+import lariat.codec.Reading;
+import lariat.codec.RecordDecoder;
+import lariat.config.StageConfig;
+import org.junit.jupiter.api.Test;
+
+/** The bench stage's input is what its stage configuration decodes, and its JSON has the contract keys. */
+class StageBenchTest {
+
+    private static final double EXACT = 0.0;
+
+    @Test
+    void records_decodedWithBenchStageConfig_everyRecordAcceptedWithTargetFromTrueModel() {
+        StageBenchRecords in = StageBenchRecords.of(5, 3, 60, 2, 7);
+        RecordDecoder decoder = RecordDecoder.create(
+                StageConfig.of(StageBench.stageProperties("localhost:9092", "in", "bench", 5)));
+        KeyLayouts layouts = KeyLayouts.create();
+        for (int i = 0; i < in.count(); i++) {
+            Decoded d = decoder.decode(in.key(i), in.value(i), 0L, layouts);
+            Reading r = assertInstanceOf(Reading.class, d, "record " + i);
+            assertEquals(StageBenchRecords.station(i % 3), r.key());
+            assertEquals(List.of("x000", "x001", "x002", "x003", "x004"), r.channels());
+            double[] z = r.z();
+            double residual = r.target() - (z[0] - 0.5 * z[1] + 0.25 * z[2]);
+            // the noise is N(0, 0.1^2): a residual beyond 8 standard deviations would mean a wrong target
+            assertTrue(Math.abs(residual) < 0.8, "record " + i + " residual " + residual);
+            assertEquals(1.0, r.weight(), EXACT);
+            assertEquals(i % 3 % 2, in.partition(i));
+        }
+    }
+
+    @Test
+    void toJson_twoRounds_contractKeysFromLastRound() {
+        StageBenchResult.Round first = StageBenchResult.Round.of(StageBenchResult.Phase.of(1000, 1.0, 1.0, 0),
+                StageBenchResult.Phase.of(1000, 4.0, 3.0, 3));
+        StageBenchResult.Round last = StageBenchResult.Round.of(StageBenchResult.Phase.of(1000, 0.5, 0.4, 0),
+                StageBenchResult.Phase.of(1000, 2.0, 1.5, 2));
+        Map<String, Object> json = StageBenchResult.of(32, 8, 1000, 4, 460.0, List.of(first, last), 2, 1.0, 1.5)
+                .toJson();
+        assertEquals(List.of("stage_records_per_s", "consumer_records_per_s", "ratio"),
+                List.copyOf(json.keySet()).subList(0, 3));
+        assertEquals(500.0, (double) json.get("stage_records_per_s"), EXACT);
+        assertEquals(2000.0, (double) json.get("consumer_records_per_s"), EXACT);
+        assertEquals(0.25, (double) json.get("ratio"), EXACT);
+        assertEquals(2, ((List<?>) json.get("rounds")).size());
+    }
+}
