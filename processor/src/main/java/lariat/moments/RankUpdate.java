@@ -4,10 +4,13 @@ package lariat.moments;
  * The symmetric rank-k update C ← C + Xᵀ X on the upper triangle of a row-major d × d matrix, for a
  * panel X of k rows held column by column (column c at {@code panel[c·k .. c·k + k − 1]}).
  *
- * <p>Entry C_ij (i &lt;= j) becomes ((C_ij + x_0i x_0j) + x_1i x_1j) + … + x_(k−1)i x_(k−1)j: one product
- * and one addition per row, rows in order, no fused multiply-add. That order is fixed by the data alone,
- * so the result is the same bits on every run and for every panel split: updating with rows 0..k−1 and
- * then rows k..n−1 gives the same C as one update with all n rows.
+ * <p>Entry C_ij (i &lt;= j) becomes fma(x_(k−1)i, x_(k−1)j, … fma(x_1i, x_1j, fma(x_0i, x_0j, C_ij))): one
+ * fused multiply-add ({@link Math#fma}, a single rounding, exactly specified by IEEE 754-2008 and so the
+ * same bits on every Java platform) per row, rows in order. That order is fixed by the data alone, so
+ * the result is the same bits on every run and for every panel split: updating with rows 0..k−1 and then
+ * rows k..n−1 gives the same C as one update with all n rows. The fused form needs no register for the
+ * product, which leaves room for the tile below; on a processor without a fused multiply-add
+ * instruction (x86 before 2013) {@link Math#fma} falls back to slow software arithmetic.
  *
  * <p>The loop nest is the register-tiled product of K. Goto and R. A. van de Geijn, "Anatomy of
  * high-performance matrix multiplication", ACM Transactions on Mathematical Software 34(3), 2008, article
@@ -67,18 +70,18 @@ final class RankUpdate {
         for (int r = 0; r < k; r++) {
             double x0 = x[a0 + r];
             double x1 = x[a1 + r];
-            double y0 = x[b0 + r];
-            double y1 = x[b1 + r];
-            double y2 = x[b2 + r];
-            double y3 = x[b3 + r];
-            s00 += x0 * y0;
-            s01 += x0 * y1;
-            s02 += x0 * y2;
-            s03 += x0 * y3;
-            s10 += x1 * y0;
-            s11 += x1 * y1;
-            s12 += x1 * y2;
-            s13 += x1 * y3;
+            double y = x[b0 + r];
+            s00 = Math.fma(x0, y, s00);
+            s10 = Math.fma(x1, y, s10);
+            y = x[b1 + r];
+            s01 = Math.fma(x0, y, s01);
+            s11 = Math.fma(x1, y, s11);
+            y = x[b2 + r];
+            s02 = Math.fma(x0, y, s02);
+            s12 = Math.fma(x1, y, s12);
+            y = x[b3 + r];
+            s03 = Math.fma(x0, y, s03);
+            s13 = Math.fma(x1, y, s13);
         }
         store(c, i, j, d, s00, s01, s02, s03);
         if (i1 != i) {
@@ -113,8 +116,8 @@ final class RankUpdate {
         double s1 = c[i1 * d + j];
         for (int r = 0; r < k; r++) {
             double y = x[b + r];
-            s0 += x[a0 + r] * y;
-            s1 += x[a1 + r] * y;
+            s0 = Math.fma(x[a0 + r], y, s0);
+            s1 = Math.fma(x[a1 + r], y, s1);
         }
         if (j >= i) {
             c[i * d + j] = s0;
