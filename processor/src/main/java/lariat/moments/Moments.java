@@ -138,7 +138,7 @@ public final class Moments {
 
     /**
      * Adds rows {@code 0..n-1} of the row-major block {@code rows} (at least n·d values) with their weights
-     * and event times: the block's own mean and centered co-moment (an EJML product) are computed first,
+     * and event times: the block's own mean and centered co-moment (a symmetric rank-k update) are computed first,
      * then merged (Chan, Golub &amp; LeVeque 1979). Reads the arrays, modifies this object only. The result
      * equals the record-by-record result up to rounding, not bit for bit.
      *
