@@ -3,8 +3,6 @@ package lariat.moments;
 import java.nio.BufferUnderflowException;
 import java.nio.ByteBuffer;
 import java.util.Arrays;
-import org.ejml.data.DMatrixRMaj;
-import org.ejml.dense.row.CommonOps_DDRM;
 
 /**
  * Weighted, centered co-moments over z = (z_0..z_{d-1}); callers put features first and the target last.
@@ -21,7 +19,7 @@ import org.ejml.dense.row.CommonOps_DDRM;
  *                           W = W_a + W_b,  δ = μ_b − μ_a,  μ = μ_a + (W_b/W) δ,
  *                           C = C_a + C_b + (W_a W_b / W) δ δᵀ
  * block of rows:            μ_b by a corrected two-pass mean, C_b = Xᵀ X with rows √w_i (z_i − μ_b)
- *                           (an EJML inner product), then merged as above.
+ *                           (a symmetric rank-k update, {@link RankUpdate}), then merged as above.
  * </pre>
  *
  * <p>The mean is held as an unevaluated sum of two doubles, μ = μ_hi + μ_lo with μ_hi = fl(μ_hi + μ_lo),
@@ -38,7 +36,8 @@ import org.ejml.dense.row.CommonOps_DDRM;
  * "Algorithms for computing the sample variance: analysis and recommendations", The American
  * Statistician 37(3), 1983, 242–247.
  *
- * <p>C is kept exactly symmetric: the upper triangle is computed and mirrored. A state whose weight
+ * <p>Only the upper triangle of C is computed and stored; {@link #comoment(int, int)} and
+ * {@link #comomentMatrix()} read C_ij for i &gt; j from C_ji, so C is exactly symmetric. A state whose weight
  * underflows to zero under {@link #scale(double)} becomes empty in weight (W = Σ w² = 0, μ = 0, C = 0) and
  * keeps its record count and event-time range. Every mutating method checks its input, and that the
  * result stays finite, before it modifies anything; on failure it throws {@link IllegalArgumentException}
@@ -59,8 +58,14 @@ public final class Moments {
     public static final int MAX_WIDTH = 20_000;
 
     private static final int HEADER_BYTES = 1 + 4 + 8 + 8 + 8 + 8 + 8;
+    /** Block rows centered and transposed at a time for {@link RankUpdate}: 2 KiB per column. */
+    private static final int PANEL_ROWS = 256;
+    private static final int MIN_PANEL_ROWS = 16;
+    /** Bound on the panel workspace, 4 MiB, which lowers the panel rows for very wide moments. */
+    private static final int PANEL_VALUES = 1 << 19;
 
     private final int d;
+    private final int panelRows;
     private long count;
     private double totalWeight;
     private double sumSquaredWeights;
@@ -73,8 +78,8 @@ public final class Moments {
     private final double[] delta;
     private double[] blockMean;
     private double[] blockMeanLow;
-    private DMatrixRMaj centered;
-    private DMatrixRMaj blockComoment;
+    private double[] panel;
+    private double[] blockComoment;
 
     /**
      * Creates empty moments of width {@code width}.
@@ -89,6 +94,7 @@ public final class Moments {
         this.mean = new double[width];
         this.meanLow = new double[width];
         this.comoment = new double[width * width];
+        this.panelRows = Math.max(MIN_PANEL_ROWS, Math.min(PANEL_ROWS, PANEL_VALUES / width));
         this.delta = new double[width];
     }
 
@@ -123,7 +129,6 @@ public final class Moments {
                 comoment[row + j] += kd * delta[j];
             }
         }
-        mirror(comoment, d);
         totalWeight = newWeight;
         sumSquaredWeights = newSquares;
         count++;
@@ -133,7 +138,7 @@ public final class Moments {
 
     /**
      * Adds rows {@code 0..n-1} of the row-major block {@code rows} (at least n·d values) with their weights
-     * and event times: the block's own mean and centered co-moment (an EJML product) are computed first,
+     * and event times: the block's own mean and centered co-moment (a symmetric rank-k update) are computed first,
      * then merged (Chan, Golub &amp; LeVeque 1979). Reads the arrays, modifies this object only. The result
      * equals the record-by-record result up to rounding, not bit for bit.
      *
@@ -201,8 +206,11 @@ public final class Moments {
                 throw new IllegalArgumentException("scaling by " + factor + " overflows column " + i);
             }
         }
-        for (int i = 0; i < comoment.length; i++) {
-            comoment[i] *= factor;
+        for (int i = 0; i < d; i++) {
+            int row = i * d;
+            for (int j = i; j < d; j++) {
+                comoment[row + j] *= factor;
+            }
         }
         totalWeight = newWeight;
         sumSquaredWeights = newSquares;
@@ -243,12 +251,14 @@ public final class Moments {
     public double comoment(int i, int j) {
         checkIndex(i, "i");
         checkIndex(j, "j");
-        return comoment[i * d + j];
+        return i <= j ? comoment[i * d + j] : comoment[j * d + i];
     }
 
     /** A copy of C, row-major d × d, exactly symmetric. */
     public double[] comomentMatrix() {
-        return comoment.clone();
+        double[] c = comoment.clone();
+        mirror(c, d);
+        return c;
     }
 
     /** Smallest event time merged, or {@link Long#MAX_VALUE} when no record has been merged. */
@@ -356,7 +366,6 @@ public final class Moments {
                 m.comoment[i * width + j] = readValue(buf, "comoment");
             }
         }
-        mirror(m.comoment, width);
         m.checkConsistent();
         return m;
     }
@@ -467,7 +476,7 @@ public final class Moments {
             blockMin = Math.min(blockMin, eventTimesMs[r]);
             blockMax = Math.max(blockMax, eventTimesMs[r]);
         }
-        double[] c = blockComoment.data;
+        double[] c = blockComoment;
         Arrays.fill(blockMean, 0.0);
         Arrays.fill(blockMeanLow, 0.0);
         if (blockWeight > 0.0 && blockSquares > 0.0) {
@@ -484,15 +493,18 @@ public final class Moments {
         if (blockMean == null) {
             blockMean = new double[d];
             blockMeanLow = new double[d];
-            centered = new DMatrixRMaj(n, d);
-            blockComoment = new DMatrixRMaj(d, d);
+            blockComoment = new double[d * d];
         }
-        centered.reshape(n, d);
+        int rows = Math.min(n, panelRows);
+        if (panel == null || panel.length < rows * d) {
+            panel = new double[rows * d];
+        }
     }
 
     /**
      * Fills blockMean + blockMeanLow with the corrected two-pass mean m + Σ w (z − m) / W (Chan, Golub &amp;
-     * LeVeque 1983) as a TwoSum pair, and blockComoment with the centered co-moment, exactly symmetric.
+     * LeVeque 1983) as a TwoSum pair, and the upper triangle of blockComoment with the centered co-moment,
+     * accumulated over panels of at most {@code panelRows} rows (the split does not change the result).
      */
     private void blockMoments(double[] rows, double[] weights, int n, double blockWeight) {
         for (int r = 0; r < n; r++) {
@@ -519,16 +531,48 @@ public final class Moments {
             blockMeanLow[c] = twoSumError(blockMean[c], correction, hi);
             blockMean[c] = hi;
         }
-        double[] x = centered.data;
-        for (int r = 0; r < n; r++) {
-            double s = Math.sqrt(weights[r]);
-            int base = r * d;
+        Arrays.fill(blockComoment, 0.0);
+        for (int start = 0; start < n; start += panelRows) {
+            int k = Math.min(panelRows, n - start);
+            centerPanel(rows, weights, start, k);
+            RankUpdate.addUpper(panel, k, d, blockComoment);
+        }
+    }
+
+    /**
+     * Writes √w_r ((z_rc − μ_hi,c) − μ_lo,c) for block rows start..start+k−1 into {@code panel}, column c at
+     * panel[c·k ..], four rows at a time so that each write run is contiguous.
+     */
+    private void centerPanel(double[] rows, double[] weights, int start, int k) {
+        double[] x = panel;
+        int r = 0;
+        for (; r + 4 <= k; r += 4) {
+            int row = start + r;
+            double s0 = Math.sqrt(weights[row]);
+            double s1 = Math.sqrt(weights[row + 1]);
+            double s2 = Math.sqrt(weights[row + 2]);
+            double s3 = Math.sqrt(weights[row + 3]);
+            int b0 = row * d;
+            int b1 = b0 + d;
+            int b2 = b1 + d;
+            int b3 = b2 + d;
             for (int c = 0; c < d; c++) {
-                x[base + c] = s * ((rows[base + c] - blockMean[c]) - blockMeanLow[c]);
+                double m = blockMean[c];
+                double lo = blockMeanLow[c];
+                int o = c * k + r;
+                x[o] = s0 * ((rows[b0 + c] - m) - lo);
+                x[o + 1] = s1 * ((rows[b1 + c] - m) - lo);
+                x[o + 2] = s2 * ((rows[b2 + c] - m) - lo);
+                x[o + 3] = s3 * ((rows[b3 + c] - m) - lo);
             }
         }
-        CommonOps_DDRM.multInner(centered, blockComoment);
-        mirror(blockComoment.data, d);
+        for (; r < k; r++) {
+            double s = Math.sqrt(weights[start + r]);
+            int base = (start + r) * d;
+            for (int c = 0; c < d; c++) {
+                x[c * k + r] = s * ((rows[base + c] - blockMean[c]) - blockMeanLow[c]);
+            }
+        }
     }
 
     /**
@@ -584,7 +628,6 @@ public final class Moments {
                 comoment[row + j] = stateFactor * comoment[row + j] + cb[row + j] + kd * delta[j];
             }
         }
-        mirror(comoment, d);
         totalWeight = newWeight;
         sumSquaredWeights = newSquares;
     }
