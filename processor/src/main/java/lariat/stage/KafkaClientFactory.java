@@ -1,0 +1,93 @@
+package lariat.stage;
+
+import org.apache.kafka.clients.admin.Admin;
+import org.apache.kafka.clients.admin.AdminClientConfig;
+import org.apache.kafka.clients.consumer.Consumer;
+import org.apache.kafka.clients.consumer.ConsumerConfig;
+import org.apache.kafka.clients.consumer.KafkaConsumer;
+import org.apache.kafka.clients.producer.KafkaProducer;
+import org.apache.kafka.clients.producer.Producer;
+import org.apache.kafka.clients.producer.ProducerConfig;
+import org.apache.kafka.common.serialization.ByteArrayDeserializer;
+import org.apache.kafka.common.serialization.ByteArraySerializer;
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
+
+import java.util.Map;
+
+/**
+ * Real Kafka clients from the pass-through client properties, with the settings exactly-once
+ * needs forced on top (a user value that conflicts is replaced and logged): read_committed,
+ * manual commits, the group id, transactional id {@code stage.id-stage.instance}, idempotence,
+ * {@code acks=all}, byte-array (de)serializers.
+ */
+public final class KafkaClientFactory implements ClientFactory {
+
+    private static final Logger LOG = LoggerFactory.getLogger(KafkaClientFactory.class);
+
+    private final StageSettings s;
+
+    public KafkaClientFactory(StageSettings settings) {
+        this.s = settings;
+    }
+
+    @Override
+    public Consumer<byte[], byte[]> groupConsumer() {
+        Map<String, Object> p = consumer();
+        p.putIfAbsent(ConsumerConfig.AUTO_OFFSET_RESET_CONFIG, "earliest");
+        force(p, ConsumerConfig.GROUP_ID_CONFIG, s.groupId());
+        force(p, ConsumerConfig.ISOLATION_LEVEL_CONFIG, "read_committed");
+        force(p, ConsumerConfig.ENABLE_AUTO_COMMIT_CONFIG, "false");
+        p.put(ConsumerConfig.CLIENT_ID_CONFIG, s.transactionalId() + "-consumer");
+        return new KafkaConsumer<>(p, new ByteArrayDeserializer(), new ByteArrayDeserializer());
+    }
+
+    @Override
+    public Consumer<byte[], byte[]> restoreConsumer() {
+        Map<String, Object> p = consumer();
+        p.remove(ConsumerConfig.GROUP_ID_CONFIG);
+        p.remove(ConsumerConfig.GROUP_INSTANCE_ID_CONFIG);
+        p.remove(ConsumerConfig.GROUP_PROTOCOL_CONFIG);
+        force(p, ConsumerConfig.ISOLATION_LEVEL_CONFIG, "read_committed");
+        p.put(ConsumerConfig.ENABLE_AUTO_COMMIT_CONFIG, "false");
+        p.put(ConsumerConfig.AUTO_OFFSET_RESET_CONFIG, "earliest");
+        p.put(ConsumerConfig.MAX_PARTITION_FETCH_BYTES_CONFIG, Math.max(s.snapshotMaxMessageBytes(), 1 << 20));
+        p.put(ConsumerConfig.CLIENT_ID_CONFIG, s.transactionalId() + "-restore");
+        return new KafkaConsumer<>(p, new ByteArrayDeserializer(), new ByteArrayDeserializer());
+    }
+
+    @Override
+    public Producer<byte[], byte[]> producer() {
+        Map<String, Object> p = s.producerProperties();
+        p.remove(ProducerConfig.KEY_SERIALIZER_CLASS_CONFIG);
+        p.remove(ProducerConfig.VALUE_SERIALIZER_CLASS_CONFIG);
+        force(p, ProducerConfig.TRANSACTIONAL_ID_CONFIG, s.transactionalId());
+        force(p, ProducerConfig.ENABLE_IDEMPOTENCE_CONFIG, "true");
+        force(p, ProducerConfig.ACKS_CONFIG, "all");
+        p.putIfAbsent(ProducerConfig.MAX_REQUEST_SIZE_CONFIG, s.snapshotMaxMessageBytes());
+        p.putIfAbsent(ProducerConfig.LINGER_MS_CONFIG, 5);
+        p.put(ProducerConfig.CLIENT_ID_CONFIG, s.transactionalId() + "-producer");
+        return new KafkaProducer<>(p, new ByteArraySerializer(), new ByteArraySerializer());
+    }
+
+    @Override
+    public Admin admin() {
+        Map<String, Object> p = s.adminProperties();
+        p.put(AdminClientConfig.CLIENT_ID_CONFIG, s.transactionalId() + "-admin");
+        return Admin.create(p);
+    }
+
+    private Map<String, Object> consumer() {
+        Map<String, Object> p = s.consumerProperties();
+        p.remove(ConsumerConfig.KEY_DESERIALIZER_CLASS_CONFIG);
+        p.remove(ConsumerConfig.VALUE_DESERIALIZER_CLASS_CONFIG);
+        return p;
+    }
+
+    private static void force(Map<String, Object> p, String key, Object value) {
+        Object old = p.put(key, value);
+        if (old != null && !String.valueOf(old).equals(String.valueOf(value))) {
+            LOG.warn("client property {}={} replaced by {}, which exactly-once processing requires", key, old, value);
+        }
+    }
+}

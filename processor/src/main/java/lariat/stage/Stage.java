@@ -1,0 +1,546 @@
+package lariat.stage;
+
+import lariat.codec.ChannelLayout;
+import lariat.codec.Decoded;
+import lariat.codec.KeyLayouts;
+import lariat.codec.Reading;
+import lariat.codec.Rejection;
+import lariat.codec.Skipped;
+import org.apache.kafka.clients.consumer.Consumer;
+import org.apache.kafka.clients.consumer.ConsumerRebalanceListener;
+import org.apache.kafka.clients.consumer.ConsumerRecord;
+import org.apache.kafka.clients.consumer.ConsumerRecords;
+import org.apache.kafka.clients.consumer.OffsetAndMetadata;
+import org.apache.kafka.clients.producer.Producer;
+import org.apache.kafka.clients.producer.ProducerRecord;
+import org.apache.kafka.common.KafkaException;
+import org.apache.kafka.common.TopicPartition;
+import org.apache.kafka.common.errors.InterruptException;
+import org.apache.kafka.common.errors.WakeupException;
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
+
+import java.io.IOException;
+import java.nio.charset.StandardCharsets;
+import java.time.Duration;
+import java.util.ArrayList;
+import java.util.Collection;
+import java.util.HashMap;
+import java.util.HashSet;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.OptionalLong;
+import java.util.Set;
+import java.util.concurrent.CountDownLatch;
+import java.util.concurrent.TimeUnit;
+
+/**
+ * The stage's loop: Kafka's consume-transform-produce pattern with one transaction per cycle.
+ *
+ * <p>A cycle polls until a poll returns nothing or {@code cycle.interval.ms} of wall time has
+ * passed, routing each record to its key's moments or to a dead letter; then it refits every
+ * key whose refit is due, and in one transaction sends the model versions, alerts, dead
+ * letters, a snapshot of every key that changed (plus each partition's position marker) and
+ * the consumed offsets with the consumer's group metadata. Wall time only decides when a cycle
+ * ends; what a refit computes depends only on the key's records.
+ *
+ * <p>Failures are handled in three places: a bad record becomes a dead letter in
+ * {@link #route}; an abortable client error aborts the transaction and restores the assigned
+ * partitions from their snapshots ({@link #recoverAbortable}); a fatal one closes both clients
+ * and creates new ones ({@link #recoverFatal}). Rebalances drop revoked partitions and restore
+ * assigned ones before any of their records is processed.
+ *
+ * <p>Not thread-safe, except {@link #shutdown()}, {@link #live()} and {@link #ready()}.
+ */
+public final class Stage implements AutoCloseable {
+
+    private static final Logger LOG = LoggerFactory.getLogger(Stage.class);
+    private static final Duration IDLE_POLL = Duration.ofMillis(200);
+
+    private final StageSettings s;
+    private final InputDecoder decoder;
+    private final Refitter refitter;
+    private final ClientFactory clients;
+    private final StageMetrics metrics;
+    private final PartitionStates states = new PartitionStates();
+    private final Map<Integer, PartitionWork> work = new LinkedHashMap<>();
+    private final Map<Integer, KeyLayouts> layouts = new HashMap<>();
+    private final String targetName;
+    private final Set<TopicPartition> assigned = new HashSet<>();
+    private final CountDownLatch stopped = new CountDownLatch(1);
+    private volatile boolean stopping;
+    private volatile boolean live;
+    private volatile boolean ready;
+    private boolean inTransaction;
+    private volatile int metricsPort = -1;
+    private Consumer<byte[], byte[]> consumer;
+    private Consumer<byte[], byte[]> restoreConsumer;
+    private Producer<byte[], byte[]> producer;
+    private SnapshotReader reader;
+
+    /** Offsets and dead letters of one partition in the open cycle. */
+    private static final class PartitionWork {
+        long nextOffset = -1;
+        final List<ProducerRecord<byte[], byte[]>> deadLetters = new ArrayList<>();
+    }
+
+    Stage(StageSettings settings, String targetName, InputDecoder decoder, Refitter refitter, ClientFactory clients,
+          StageMetrics metrics) {
+        this.s = settings;
+        this.targetName = targetName;
+        this.decoder = decoder;
+        this.refitter = refitter;
+        this.clients = clients;
+        this.metrics = metrics;
+    }
+
+    /** Whether the loop thread is running. */
+    public boolean live() {
+        return live;
+    }
+
+    /** Whether every assigned partition has been restored and the loop is processing. */
+    public boolean ready() {
+        return ready;
+    }
+
+    /** Longest wait for the clients to close on shutdown, in ms. */
+    public long closeTimeoutMs() {
+        return s.closeTimeoutMs();
+    }
+
+    /** The bound metrics port, or -1 when there is no endpoint (yet). */
+    public int metricsPort() {
+        return metricsPort;
+    }
+
+    public StageMetrics metrics() {
+        return metrics;
+    }
+
+    /**
+     * Runs until {@link #shutdown()}: creates missing topics (refusing ill-fitting ones),
+     * creates the clients and loops over cycles.
+     *
+     * @throws TopicSetup.TopicMismatchException when a topic does not fit
+     */
+    public void run() throws InterruptedException {
+        live = true;
+        MetricsServer server = null;
+        try {
+            if (s.metricsPort() >= 0) {
+                try {
+                    server = MetricsServer.start(s.metricsPort(), metrics, this::live, this::ready);
+                    metricsPort = server.port();
+                    LOG.info("metrics on port {}", metricsPort);
+                } catch (IOException e) {
+                    throw new IllegalStateException("metrics.port " + s.metricsPort() + " cannot be bound: " + e, e);
+                }
+            }
+            try (var admin = clients.admin()) {
+                new TopicSetup(admin, s).ensure();
+            }
+            openClients();
+            while (!stopping) {
+                runOneCycle();
+            }
+        } finally {
+            closeClients(Duration.ofMillis(s.closeTimeoutMs()));
+            live = false;
+            ready = false;
+            if (server != null) {
+                server.close();
+            }
+            stopped.countDown();
+        }
+    }
+
+    /** Asks the loop to finish its cycle and close; returns at once. Safe from any thread. */
+    public void shutdown() {
+        stopping = true;
+        Consumer<byte[], byte[]> c = consumer;
+        if (c != null) {
+            c.wakeup();
+        }
+    }
+
+    /** Waits up to {@code timeoutMs} for {@link #run()} to return. */
+    public boolean awaitStopped(long timeoutMs) throws InterruptedException {
+        return stopped.await(timeoutMs, TimeUnit.MILLISECONDS);
+    }
+
+    @Override
+    public void close() {
+        shutdown();
+    }
+
+    private void runOneCycle() {
+        boolean committing = false;
+        try {
+            pollCycle();
+            committing = true;
+            commitCycle();
+        } catch (WakeupException e) {
+            if (!stopping) {
+                throw e;
+            }
+            finishOnShutdown();
+        } catch (InterruptException e) {
+            stopping = true;
+            Thread.currentThread().interrupt();
+        } catch (KafkaException e) {
+            FailureKind kind = FailureKind.of(e, committing);
+            LOG.warn("cycle failed ({}): {}", kind, e.toString());
+            if (kind == FailureKind.ABORTABLE) {
+                recoverAbortable();
+            } else {
+                recoverFatal();
+            }
+        }
+    }
+
+    private void pollCycle() {
+        long start = System.nanoTime();
+        long budget = TimeUnit.MILLISECONDS.toNanos(s.cycleIntervalMs());
+        Duration wait = IDLE_POLL;
+        while (!stopping) {
+            ConsumerRecords<byte[], byte[]> batch = consumer.poll(wait);
+            for (ConsumerRecord<byte[], byte[]> r : batch) {
+                route(r);
+            }
+            if (batch.isEmpty() || System.nanoTime() - start >= budget) {
+                return;
+            }
+            wait = Duration.ZERO;
+        }
+    }
+
+    /** Skippable failures end here: a bad record becomes a dead letter, the moments untouched. */
+    private void route(ConsumerRecord<byte[], byte[]> r) {
+        metrics.recordIn();
+        PartitionWork w = work.computeIfAbsent(r.partition(), p -> new PartitionWork());
+        w.nextOffset = r.offset() + 1;
+        KeyLayouts partitionLayouts = layouts.computeIfAbsent(r.partition(), p -> KeyLayouts.create());
+        Decoded d = decoder.decode(r.key(), r.value(), r.timestamp(), partitionLayouts);
+        if (d instanceof Skipped) {
+            metrics.skipped();
+            return;
+        }
+        if (d instanceof Rejection) {
+            Rejection x = (Rejection) d;
+            reject(w, r, x.reason().name(), x.detail(), x.exceptionClass().orElse(null));
+            return;
+        }
+        Reading reading = (Reading) d;
+        String key = reading.key();
+        int owner = states.ownerOf(key);
+        if (owner >= 0 && owner != r.partition()) {
+            metrics.keyOnTwoPartitions();
+            LOG.error("model key '{}' arrived on input partition {} but lives on partition {}: the input must be "
+                    + "partitioned by model key", key, r.partition(), owner);
+            reject(w, r, DeadLetters.KEY_ON_TWO_PARTITIONS, "key lives on partition " + owner, null);
+            return;
+        }
+        KeyState state = owner >= 0 ? states.get(key) : null;
+        double[] z = reading.z();
+        if (state != null && state.width() != z.length) {
+            reject(w, r, DeadLetters.WRONG_WIDTH, "key has width " + state.width() + ", record has " + z.length,
+                    null);
+            return;
+        }
+        boolean fresh = state == null;
+        if (fresh) {
+            List<String> names = new ArrayList<>(reading.channels());
+            names.add(targetName);
+            state = KeyState.create(key, r.partition(), names.toArray(new String[0]), s.blockSize(),
+                    s.halfLifeMs(), s.cvFolds());
+        }
+        try {
+            state.add(z, reading.weight(), reading.eventTimeMs(), r.offset());
+        } catch (IllegalArgumentException e) {
+            if (fresh) {
+                partitionLayouts.remove(key);
+            }
+            reject(w, r, DeadLetters.NON_FINITE, e.getMessage(), e.getClass().getName());
+            return;
+        }
+        if (fresh) {
+            states.put(state);
+        }
+        metrics.recordAccepted();
+    }
+
+    private void reject(PartitionWork w, ConsumerRecord<byte[], byte[]> r, String reason, String detail,
+                        String exceptionClass) {
+        metrics.rejected(reason);
+        w.deadLetters.add(DeadLetters.of(s.deadLetterTopic(), r, reason, detail, exceptionClass));
+    }
+
+    private void commitCycle() {
+        if (work.isEmpty()) {
+            updateLag();
+            return;
+        }
+        List<ProducerRecord<byte[], byte[]>> out = new ArrayList<>();
+        for (KeyState k : states.all()) {
+            if (k.dirty() && k.refitDue(s.refitEveryRecords(), s.refitEveryEventMs())) {
+                refit(k, out);
+            }
+        }
+        producer.beginTransaction();
+        inTransaction = true;
+        for (ProducerRecord<byte[], byte[]> r : out) {
+            producer.send(r);
+        }
+        Map<TopicPartition, OffsetAndMetadata> offsets = new HashMap<>();
+        Map<KeyState, Integer> newChunkCounts = new HashMap<>();
+        for (Map.Entry<Integer, PartitionWork> e : work.entrySet()) {
+            int p = e.getKey();
+            PartitionWork w = e.getValue();
+            for (ProducerRecord<byte[], byte[]> dl : w.deadLetters) {
+                producer.send(dl);
+            }
+            for (KeyState k : states.of(p)) {
+                if (k.dirty()) {
+                    newChunkCounts.put(k, sendSnapshot(k));
+                }
+            }
+            SnapshotFormat.Entry marker = SnapshotFormat.offsetMarker(w.nextOffset);
+            producer.send(new ProducerRecord<>(s.snapshotTopic(), p, marker.key(), marker.value()));
+            offsets.put(new TopicPartition(s.inputTopic(), p), new OffsetAndMetadata(w.nextOffset));
+        }
+        producer.sendOffsetsToTransaction(offsets, consumer.groupMetadata());
+        producer.commitTransaction();
+        inTransaction = false;
+        metrics.transactionCommitted();
+        for (Map.Entry<KeyState, Integer> e : newChunkCounts.entrySet()) {
+            e.getKey().chunkCount(e.getValue());
+            e.getKey().clean();
+        }
+        work.clear();
+        metrics.keys(states.size());
+        updateLag();
+    }
+
+    private void refit(KeyState k, List<ProducerRecord<byte[], byte[]>> out) {
+        long t0 = System.nanoTime();
+        try {
+            out.addAll(refitter.refit(k));
+        } catch (RuntimeException e) {
+            metrics.refitFailed();
+            LOG.error("refit of key '{}' failed; no version published for it this cycle", k.modelKey(), e);
+        }
+        k.refitted();
+        metrics.refit((System.nanoTime() - t0) / 1e9);
+    }
+
+    private int sendSnapshot(KeyState k) {
+        byte[] state = k.toBytes();
+        List<SnapshotFormat.Entry> entries = SnapshotFormat.encode(k.modelKey(), k.count(), state,
+                s.snapshotChunkBytes(), k.chunkCount());
+        int chunks = 0;
+        for (SnapshotFormat.Entry e : entries) {
+            producer.send(new ProducerRecord<>(s.snapshotTopic(), k.partition(), e.key(), e.value()));
+            if (e.value() != null && SnapshotFormat.kindOf(e.key()) == SnapshotFormat.Kind.CHUNK) {
+                chunks++;
+            }
+        }
+        metrics.snapshotBytes(state.length);
+        return chunks;
+    }
+
+    private void updateLag() {
+        long lag = 0;
+        for (TopicPartition tp : assigned) {
+            OptionalLong l = consumer.currentLag(tp);
+            lag += l.orElse(0);
+        }
+        metrics.lag(lag);
+    }
+
+    /** Shutdown arrived mid-cycle: commit what was consumed, or abort if that fails. */
+    private void finishOnShutdown() {
+        try {
+            commitCycle();
+        } catch (KafkaException e) {
+            LOG.warn("final commit on shutdown failed, aborting: {}", e.toString());
+            abortIfOpen();
+        }
+    }
+
+    private void recoverAbortable() {
+        try {
+            abortIfOpen();
+        } catch (KafkaException e) {
+            LOG.warn("abort failed; recreating clients: {}", e.toString());
+            recoverFatal();
+            return;
+        }
+        work.clear();
+        try {
+            restore(new ArrayList<>(assigned));
+        } catch (KafkaException e) {
+            LOG.warn("restore after abort failed; recreating clients: {}", e.toString());
+            recoverFatal();
+        }
+    }
+
+    private void abortIfOpen() {
+        if (inTransaction) {
+            inTransaction = false;
+            metrics.transactionAborted();
+            producer.abortTransaction();
+        }
+    }
+
+    private void recoverFatal() {
+        if (inTransaction) {
+            inTransaction = false;
+            metrics.transactionAborted();
+        }
+        metrics.fatalRecovery();
+        work.clear();
+        states.clear();
+        layouts.clear();
+        assigned.clear();
+        ready = false;
+        closeClients(Duration.ofMillis(s.closeTimeoutMs()));
+        if (!stopping) {
+            openClients();
+        }
+    }
+
+    private void openClients() {
+        producer = clients.producer();
+        producer.initTransactions();
+        restoreConsumer = clients.restoreConsumer();
+        reader = new SnapshotReader(restoreConsumer, metrics, Duration.ofMillis(s.restoreTimeoutMs()));
+        consumer = clients.groupConsumer();
+        consumer.subscribe(List.of(s.inputTopic()), new Listener());
+    }
+
+    private void closeClients(Duration timeout) {
+        if (consumer != null) {
+            closeQuietly(consumer, timeout);
+            consumer = null;
+        }
+        if (restoreConsumer != null) {
+            closeQuietly(restoreConsumer, timeout);
+            restoreConsumer = null;
+        }
+        if (producer != null) {
+            try {
+                producer.close(timeout);
+            } catch (KafkaException e) {
+                LOG.warn("producer close failed: {}", e.toString());
+            }
+            producer = null;
+        }
+    }
+
+    private static void closeQuietly(Consumer<byte[], byte[]> c, Duration timeout) {
+        try {
+            c.close(timeout);
+        } catch (KafkaException e) {
+            LOG.warn("consumer close failed: {}", e.toString());
+        }
+    }
+
+    /**
+     * Replaces the state of {@code partitions} with their snapshots and seeks each to its
+     * committed offset. The committed offsets are fetched first: that fetch waits until no
+     * transaction that could still commit offsets for them is open, so the snapshot read after
+     * it is the one those offsets belong to.
+     */
+    private void restore(Collection<TopicPartition> partitions) {
+        if (partitions.isEmpty()) {
+            return;
+        }
+        boolean wasReady = ready;
+        ready = false;
+        long t0 = System.nanoTime();
+        Map<TopicPartition, OffsetAndMetadata> committed = consumer.committed(new HashSet<>(partitions),
+                Duration.ofMillis(s.restoreTimeoutMs()));
+        for (TopicPartition tp : partitions) {
+            states.drop(tp.partition());
+            work.remove(tp.partition());
+            layouts.remove(tp.partition());
+            SnapshotReader.Partition snap = reader.read(new TopicPartition(s.snapshotTopic(), tp.partition()));
+            for (Map.Entry<String, SnapshotReader.Restored> e : snap.states.entrySet()) {
+                install(tp, e.getKey(), e.getValue());
+            }
+            OffsetAndMetadata c = committed.get(tp);
+            long position = c != null ? c.offset() : Math.max(snap.nextOffset, 0);
+            if (c != null && snap.nextOffset >= 0 && snap.nextOffset != c.offset()) {
+                LOG.warn("{}: committed offset {} differs from the snapshot's position {}; using the committed one",
+                        tp, c.offset(), snap.nextOffset);
+            }
+            consumer.seek(tp, position);
+            LOG.info("restored {}: {} keys, resuming at offset {}", tp, states.of(tp.partition()).size(), position);
+        }
+        metrics.restored((System.nanoTime() - t0) / 1e9);
+        metrics.keys(states.size());
+        ready = wasReady;
+    }
+
+    private void install(TopicPartition tp, String key, SnapshotReader.Restored r) {
+        try {
+            KeyState k = KeyState.fromBytes(r.state, r.chunkCount);
+            if (!k.modelKey().equals(key) || k.partition() != tp.partition()) {
+                LOG.error("snapshot of key '{}' in partition {} names key '{}' on partition {}; not applied",
+                        key, tp.partition(), k.modelKey(), k.partition());
+                metrics.snapshotIncomplete();
+                return;
+            }
+            int other = states.ownerOf(key);
+            if (other >= 0 && other != tp.partition()) {
+                LOG.error("model key '{}' has snapshots on partitions {} and {}", key, other, tp.partition());
+                metrics.keyOnTwoPartitions();
+                return;
+            }
+            String[] ch = k.channels();
+            layouts.computeIfAbsent(tp.partition(), p -> KeyLayouts.create())
+                    .put(key, ChannelLayout.of(List.of(ch).subList(0, ch.length - 1)));
+            states.put(k);
+        } catch (IOException | IllegalArgumentException e) {
+            metrics.snapshotIncomplete();
+            LOG.error("snapshot of key '{}' in partition {} cannot be decoded; not applied: {}", key,
+                    tp.partition(), e.toString());
+        }
+    }
+
+    /** Drops revoked or lost partitions; restores assigned ones before their records are processed. */
+    private final class Listener implements ConsumerRebalanceListener {
+        @Override
+        public void onPartitionsRevoked(Collection<TopicPartition> partitions) {
+            forget(partitions);
+        }
+
+        @Override
+        public void onPartitionsLost(Collection<TopicPartition> partitions) {
+            forget(partitions);
+        }
+
+        @Override
+        public void onPartitionsAssigned(Collection<TopicPartition> partitions) {
+            assigned.addAll(partitions);
+            restore(partitions);
+            ready = true;
+        }
+
+        private void forget(Collection<TopicPartition> partitions) {
+            for (TopicPartition tp : partitions) {
+                states.drop(tp.partition());
+                work.remove(tp.partition());
+                layouts.remove(tp.partition());
+                assigned.remove(tp);
+            }
+            metrics.keys(states.size());
+        }
+    }
+
+    static byte[] utf8(String s) {
+        return s.getBytes(StandardCharsets.UTF_8);
+    }
+}

@@ -1,0 +1,153 @@
+package lariat.stage;
+
+import org.apache.kafka.clients.admin.Admin;
+import org.apache.kafka.clients.admin.Config;
+import org.apache.kafka.clients.admin.ConfigEntry;
+import org.apache.kafka.clients.admin.NewTopic;
+import org.apache.kafka.clients.admin.TopicDescription;
+import org.apache.kafka.common.config.ConfigResource;
+import org.apache.kafka.common.config.TopicConfig;
+import org.apache.kafka.common.errors.TopicExistsException;
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
+
+import java.util.ArrayList;
+import java.util.Collection;
+import java.util.List;
+import java.util.Map;
+import java.util.Optional;
+import java.util.Set;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.TimeUnit;
+import java.util.concurrent.TimeoutException;
+
+/**
+ * Checks the input topic, creates missing output topics and refuses to start when an existing
+ * one does not fit. The snapshot topic must have as many partitions as the input (snapshot
+ * partition P holds the state of input partition P) and {@code cleanup.policy=compact} alone,
+ * since deletion by retention would lose state.
+ */
+public final class TopicSetup {
+
+    private static final Logger LOG = LoggerFactory.getLogger(TopicSetup.class);
+    private static final long TIMEOUT_S = 30;
+
+    private final Admin admin;
+    private final StageSettings s;
+
+    public TopicSetup(Admin admin, StageSettings settings) {
+        this.admin = admin;
+        this.s = settings;
+    }
+
+    /**
+     * Ensures every topic exists and fits; returns the input topic's partition count.
+     *
+     * @throws TopicMismatchException naming the topic and the mismatch
+     */
+    public int ensure() throws InterruptedException {
+        int partitions = describe(s.inputTopic())
+                .orElseThrow(() -> new TopicMismatchException("input topic '" + s.inputTopic()
+                        + "' does not exist; create it, partitioned by model key"))
+                .partitions().size();
+        Map<String, String> snapshotConfig = Map.of(
+                TopicConfig.CLEANUP_POLICY_CONFIG, TopicConfig.CLEANUP_POLICY_COMPACT,
+                TopicConfig.MAX_MESSAGE_BYTES_CONFIG, Integer.toString(s.snapshotMaxMessageBytes()),
+                TopicConfig.MIN_COMPACTION_LAG_MS_CONFIG, "0");
+        Map<String, String> modelConfig = Map.of(TopicConfig.RETENTION_MS_CONFIG,
+                Long.toString(s.modelRetentionMs()));
+        create(s.snapshotTopic(), Optional.of(partitions), snapshotConfig);
+        create(s.modelTopic(), Optional.empty(), modelConfig);
+        create(s.alertTopic(), Optional.empty(), Map.of());
+        create(s.deadLetterTopic(), Optional.empty(), Map.of());
+        checkSnapshot(partitions);
+        checkModel();
+        return partitions;
+    }
+
+    private void checkSnapshot(int inputPartitions) throws InterruptedException {
+        int sp = describe(s.snapshotTopic()).orElseThrow().partitions().size();
+        List<String> problems = new ArrayList<>();
+        if (sp != inputPartitions) {
+            problems.add("has " + sp + " partitions but input topic '" + s.inputTopic() + "' has "
+                    + inputPartitions + " (snapshot partition P must hold input partition P)");
+        }
+        String policy = config(s.snapshotTopic()).get(TopicConfig.CLEANUP_POLICY_CONFIG).value();
+        if (!TopicConfig.CLEANUP_POLICY_COMPACT.equals(policy.replace(" ", ""))) {
+            problems.add("has cleanup.policy=" + policy + " but must be compact only");
+        }
+        if (!problems.isEmpty()) {
+            throw new TopicMismatchException("snapshot topic '" + s.snapshotTopic() + "' " + String.join("; ", problems));
+        }
+    }
+
+    private void checkModel() throws InterruptedException {
+        String policy = config(s.modelTopic()).get(TopicConfig.CLEANUP_POLICY_CONFIG).value();
+        if (policy.contains(TopicConfig.CLEANUP_POLICY_COMPACT)) {
+            throw new TopicMismatchException("model topic '" + s.modelTopic() + "' has cleanup.policy=" + policy
+                    + "; compaction would delete all but the last version of each key");
+        }
+        String retention = config(s.modelTopic()).get(TopicConfig.RETENTION_MS_CONFIG).value();
+        if (!"-1".equals(retention)) {
+            LOG.warn("model topic '{}' has retention.ms={}: old versions will expire", s.modelTopic(), retention);
+        }
+    }
+
+    private void create(String topic, Optional<Integer> partitions, Map<String, String> config)
+            throws InterruptedException {
+        if (describe(topic).isPresent()) {
+            return;
+        }
+        Optional<Short> rf = s.replicationFactor() > 0 ? Optional.of(s.replicationFactor()) : Optional.empty();
+        NewTopic t = new NewTopic(topic, partitions, rf).configs(config);
+        try {
+            admin.createTopics(List.of(t)).all().get(TIMEOUT_S, TimeUnit.SECONDS);
+            LOG.info("created topic '{}' with {}", topic, config);
+        } catch (ExecutionException e) {
+            if (!(e.getCause() instanceof TopicExistsException)) {
+                throw new TopicMismatchException("cannot create topic '" + topic + "': " + e.getCause(), e.getCause());
+            }
+        } catch (TimeoutException e) {
+            throw new TopicMismatchException("timed out creating topic '" + topic + "'", e);
+        }
+    }
+
+    private Optional<TopicDescription> describe(String topic) throws InterruptedException {
+        try {
+            Set<String> names = admin.listTopics().names().get(TIMEOUT_S, TimeUnit.SECONDS);
+            if (!names.contains(topic)) {
+                return Optional.empty();
+            }
+            Collection<TopicDescription> d = admin.describeTopics(List.of(topic)).allTopicNames()
+                    .get(TIMEOUT_S, TimeUnit.SECONDS).values();
+            return d.stream().findFirst();
+        } catch (ExecutionException | TimeoutException e) {
+            throw new TopicMismatchException("cannot describe topic '" + topic + "': " + e, e);
+        }
+    }
+
+    private Map<String, ConfigEntry> config(String topic) throws InterruptedException {
+        ConfigResource r = new ConfigResource(ConfigResource.Type.TOPIC, topic);
+        try {
+            Config c = admin.describeConfigs(List.of(r)).all().get(TIMEOUT_S, TimeUnit.SECONDS).get(r);
+            Map<String, ConfigEntry> out = new java.util.HashMap<>();
+            for (ConfigEntry e : c.entries()) {
+                out.put(e.name(), e);
+            }
+            return out;
+        } catch (ExecutionException | TimeoutException e) {
+            throw new TopicMismatchException("cannot read the configuration of topic '" + topic + "': " + e, e);
+        }
+    }
+
+    /** An existing topic does not fit the stage, or a topic cannot be created. */
+    public static final class TopicMismatchException extends RuntimeException {
+        TopicMismatchException(String message) {
+            super(message);
+        }
+
+        TopicMismatchException(String message, Throwable cause) {
+            super(message, cause);
+        }
+    }
+}
