@@ -11,6 +11,7 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Properties;
+import java.util.Set;
 import java.util.TreeMap;
 import java.util.concurrent.ExecutionException;
 import java.util.concurrent.Future;
@@ -19,6 +20,9 @@ import java.util.function.BooleanSupplier;
 import lariat.it.support.PartitionReader;
 import lariat.it.support.TestKafka;
 import lariat.schema.StationReading;
+import org.apache.kafka.clients.admin.Admin;
+import org.apache.kafka.clients.admin.ConsumerGroupDescription;
+import org.apache.kafka.clients.admin.MemberDescription;
 import org.apache.kafka.clients.consumer.ConsumerRecord;
 import org.apache.kafka.clients.consumer.KafkaConsumer;
 import org.apache.kafka.clients.producer.KafkaProducer;
@@ -27,6 +31,7 @@ import org.apache.kafka.clients.producer.ProducerRecord;
 import org.apache.kafka.clients.producer.RecordMetadata;
 import org.apache.kafka.common.PartitionInfo;
 import org.apache.kafka.common.TopicPartition;
+import org.apache.kafka.common.errors.GroupIdNotFoundException;
 
 /**
  * One fault-injection run against the shared real broker: its own input, model, alert,
@@ -181,7 +186,7 @@ final class FaultRun implements AutoCloseable {
     }
 
     private boolean topicExists(String topic) {
-        try (var admin = org.apache.kafka.clients.admin.Admin.create(TestKafka.adminProperties())) {
+        try (Admin admin = Admin.create(TestKafka.adminProperties())) {
             return admin.listTopics().names().get().contains(topic);
         } catch (ExecutionException e) {
             throw new IllegalStateException("listing topics failed", e.getCause());
@@ -192,23 +197,77 @@ final class FaultRun implements AutoCloseable {
     }
 
     /**
-     * The model topic's last stable offset summed over its partitions (0 before the stage created
-     * it): it moves when a transaction that wrote models ends, so a rise shows a stage in its loop.
+     * The input offsets the stage's consumer group has committed, summed over partitions: they
+     * move only when a cycle's transaction commits.
      */
-    long modelTopicEnd() {
-        if (!topicExists(models)) {
-            return 0;
-        }
-        try (KafkaConsumer<byte[], byte[]> c = new KafkaConsumer<>(TestKafka.consumerProperties(name + "-probe"))) {
-            List<TopicPartition> tps = c.partitionsFor(models, READ_TIMEOUT).stream()
-                    .map(i -> new TopicPartition(models, i.partition())).toList();
-            return c.endOffsets(tps, READ_TIMEOUT).values().stream().mapToLong(Long::longValue).sum();
+    long committedInput() {
+        return committedByPartition().values().stream().mapToLong(Long::longValue).sum();
+    }
+
+    /** The group's committed input offset per partition (absent: none yet). */
+    Map<Integer, Long> committedByPartition() {
+        try (Admin admin = Admin.create(TestKafka.adminProperties())) {
+            Map<Integer, Long> out = new TreeMap<>();
+            admin.listConsumerGroupOffsets(name).partitionsToOffsetAndMetadata().get().forEach((tp, o) -> {
+                if (o != null) {
+                    out.put(tp.partition(), o.offset());
+                }
+            });
+            return out;
+        } catch (ExecutionException e) {
+            throw new IllegalStateException("listing the offsets of group " + name + " failed", e.getCause());
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new IllegalStateException("interrupted listing group offsets", e);
         }
     }
 
-    /** Waits until {@link #modelTopicEnd()} exceeds {@code before}: some stage committed a cycle since. */
+    /** The input topic's end offset per partition. */
+    Map<Integer, Long> inputEnds() {
+        try (KafkaConsumer<byte[], byte[]> c = new KafkaConsumer<>(TestKafka.consumerProperties(name + "-probe"))) {
+            List<TopicPartition> tps = c.partitionsFor(input, READ_TIMEOUT).stream()
+                    .map(i -> new TopicPartition(input, i.partition())).toList();
+            Map<Integer, Long> out = new TreeMap<>();
+            c.endOffsets(tps, READ_TIMEOUT).forEach((tp, e) -> out.put(tp.partition(), e));
+            return out;
+        }
+    }
+
+    /** Whether the group has committed, on every partition, at least the offsets {@code ends}. */
+    boolean committedPast(Map<Integer, Long> ends) {
+        Map<Integer, Long> c = committedByPartition();
+        return ends.entrySet().stream().allMatch(e -> e.getValue() == 0 || c.getOrDefault(e.getKey(), 0L) >= e.getValue());
+    }
+
+    /** Input partitions assigned to each stage instance now in the group, by {@code stage.instance}. */
+    Map<String, Set<Integer>> assignments() {
+        String prefix = name + "-";
+        try (Admin admin = Admin.create(TestKafka.adminProperties())) {
+            Map<String, Set<Integer>> out = new TreeMap<>();
+            ConsumerGroupDescription d = admin.describeConsumerGroups(List.of(name)).describedGroups().get(name).get();
+            for (MemberDescription m : d.members()) {
+                String id = m.clientId();
+                String instance = id.startsWith(prefix) && id.endsWith("-consumer")
+                        ? id.substring(prefix.length(), id.length() - "-consumer".length()) : id;
+                Set<Integer> parts = new java.util.TreeSet<>();
+                m.assignment().topicPartitions().forEach(tp -> parts.add(tp.partition()));
+                out.put(instance, parts);
+            }
+            return out;
+        } catch (ExecutionException e) {
+            if (e.getCause() instanceof GroupIdNotFoundException) {
+                return Map.of();
+            }
+            throw new IllegalStateException("describing group " + name + " failed", e.getCause());
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new IllegalStateException("interrupted describing the group", e);
+        }
+    }
+
+    /** Waits until {@link #committedInput()} exceeds {@code before}: some instance committed a cycle since. */
     void awaitProgress(long before, Duration timeout) throws InterruptedException {
-        await("a committed cycle after model-topic end " + before, timeout, () -> modelTopicEnd() > before);
+        await("a committed cycle past input offset sum " + before, timeout, () -> committedInput() > before);
     }
 
     /** Whether every key of {@code counts} has a last model covering exactly that many records. */

@@ -37,7 +37,7 @@ class KillNineLosesNothingIT {
              ReadingFeeder feeder = ReadingFeeder.start(run, SEED, STATIONS, 60, 100_000)) {
             StageProcess stage = run.start("0", member);
             for (int k = 0; k < KILLS; k++) {
-                run.awaitProgress(run.modelTopicEnd(), STEP);
+                run.awaitProgress(run.committedInput(), STEP);
                 Thread.sleep(moments.nextInt(3_000));
                 stage.kill();
                 stage = run.start("0", member);
