@@ -114,6 +114,11 @@ final class FaultRun implements AutoCloseable {
         return c;
     }
 
+    /** The folder of this run's configuration files and logs (created on first use). */
+    Path directory() throws IOException {
+        return Files.createDirectories(RUNS.resolve(name));
+    }
+
     /** Writes instance {@code instance}'s configuration and starts it as a child JVM. */
     StageProcess start(String instance) throws IOException {
         return start(instance, Map.of());
@@ -121,8 +126,7 @@ final class FaultRun implements AutoCloseable {
 
     /** {@link #start(String)} with {@code lines} added to this instance's configuration only. */
     StageProcess start(String instance, Map<String, String> lines) throws IOException {
-        Path dir = RUNS.resolve(name);
-        Files.createDirectories(dir);
+        Path dir = directory();
         Path file = dir.resolve(instance + ".properties");
         Properties p = new Properties();
         p.putAll(config(instance));
