@@ -16,6 +16,7 @@ import org.apache.kafka.clients.producer.ProducerRecord;
 import org.apache.kafka.common.KafkaException;
 import org.apache.kafka.common.TopicPartition;
 import org.apache.kafka.common.errors.InterruptException;
+import org.apache.kafka.common.errors.RetriableException;
 import org.apache.kafka.common.errors.WakeupException;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
@@ -57,6 +58,8 @@ public final class Stage implements AutoCloseable {
 
     private static final Logger LOG = LoggerFactory.getLogger(Stage.class);
     private static final Duration IDLE_POLL = Duration.ofMillis(200);
+    private static final long REOPEN_BACKOFF_MIN_MS = 500;
+    private static final long REOPEN_BACKOFF_MAX_MS = 5_000;
 
     private final StageSettings s;
     private final InputDecoder decoder;
@@ -406,8 +409,40 @@ public final class Stage implements AutoCloseable {
         assigned.clear();
         ready = false;
         closeClients(Duration.ofMillis(s.closeTimeoutMs()));
-        if (!stopping) {
-            openClients();
+        reopenClients();
+    }
+
+    /**
+     * Opens new clients until it works or the stage is stopping. While the cluster cannot be
+     * reached, {@code initTransactions} throws a retriable {@code TimeoutException} after
+     * {@code max.block.ms}; letting it escape would end the stage during a broker outage, so it is
+     * retried with a capped exponential backoff. A non-retriable error (e.g. authorization) still
+     * ends the stage.
+     */
+    private void reopenClients() {
+        long backoffMs = REOPEN_BACKOFF_MIN_MS;
+        while (!stopping) {
+            try {
+                openClients();
+                return;
+            } catch (RetriableException e) {
+                LOG.warn("cannot create the clients ({}); retrying in {} ms", e.toString(), backoffMs);
+                closeClients(Duration.ofMillis(s.closeTimeoutMs()));
+                pauseUnlessStopping(backoffMs);
+                backoffMs = Math.min(2 * backoffMs, REOPEN_BACKOFF_MAX_MS);
+            }
+        }
+    }
+
+    private void pauseUnlessStopping(long ms) {
+        long end = System.nanoTime() + TimeUnit.MILLISECONDS.toNanos(ms);
+        try {
+            while (!stopping && System.nanoTime() < end) {
+                Thread.sleep(50);
+            }
+        } catch (InterruptedException e) {
+            stopping = true;
+            Thread.currentThread().interrupt();
         }
     }
 
