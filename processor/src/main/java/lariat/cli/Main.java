@@ -4,7 +4,8 @@ import picocli.CommandLine;
 import picocli.CommandLine.Command;
 
 /** Entry point of the {@code lariat} command line. */
-@Command(name = "lariat", mixinStandardHelpOptions = true, subcommands = {BrokerCommand.class, RunCommand.class},
+@Command(name = "lariat", mixinStandardHelpOptions = true,
+        subcommands = {BrokerCommand.class, FitCommand.class, RunCommand.class},
         description = "Streaming lasso-path feature selection for Kafka pipelines.")
 public final class Main implements Runnable {
 

@@ -55,6 +55,12 @@ final class AvroView implements RecordView {
 
     @Override
     public String typeName(Object value) {
+        if (value instanceof CharSequence) {
+            return "string";
+        }
+        if (value instanceof Map) {
+            return "map";
+        }
         if (value instanceof GenericContainer) {
             return ((GenericContainer) value).getSchema().getType().getName();
         }

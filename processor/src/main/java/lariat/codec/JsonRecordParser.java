@@ -35,7 +35,7 @@ final class JsonRecordParser implements ValueParser {
         }
         if (!(node instanceof ObjectNode)) {
             throw new RejectSignal(RejectReason.UNDECODABLE, "JSON value is "
-                    + (node == null ? "empty" : "a " + node.getNodeType().name().toLowerCase(java.util.Locale.ROOT))
+                    + (node == null ? "empty" : "of type " + node.getNodeType().name().toLowerCase(java.util.Locale.ROOT))
                     + ", need an object");
         }
         view.reset((ObjectNode) node);

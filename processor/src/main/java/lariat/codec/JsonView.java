@@ -48,6 +48,9 @@ final class JsonView implements RecordView {
 
     @Override
     public String typeName(Object value) {
+        if (value instanceof CharSequence) {
+            return "string";
+        }
         return value instanceof JsonNode ? ((JsonNode) value).getNodeType().name().toLowerCase(java.util.Locale.ROOT)
                 : value.getClass().getSimpleName();
     }

@@ -38,8 +38,8 @@ import java.util.regex.Pattern;
 public final class StageConfig {
 
     // ---- input and field mapping ----
-    public static final ConfigKey<String> INPUT_TOPIC = string("input.topic", null, true,
-            "Topic the readings are consumed from (raw bytes, decoded by the stage).", false);
+    public static final ConfigKey<String> INPUT_TOPIC = topic("input.topic", null,
+            "Topic the readings are consumed from (raw bytes, decoded by the stage).");
     public static final ConfigKey<InputFormat> INPUT_FORMAT = choice("input.format", InputFormat.class,
             "avro-single-object", "Wire format of the input record values.", true);
     public static final ConfigKey<String> INPUT_SCHEMA_FILE = string("input.schema.file", "", false,

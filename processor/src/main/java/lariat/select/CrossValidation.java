@@ -1,5 +1,6 @@
 package lariat.select;
 
+import java.util.ArrayList;
 import java.util.List;
 import lariat.moments.Moments;
 import lariat.path.Knot;
@@ -26,8 +27,9 @@ public final class CrossValidation {
      * @param targetCol   target column in the fold moments
      * @param options     path options for the training fits; they should not stop before the grid's
      *                    smallest relative penalty (below a training path's last knot its last knot is used)
-     * @throws IllegalArgumentException if a fold holds no weight or its training part has fewer than two
-     *                                  records
+     * @return the curve over the folds that hold records (empty folds are skipped)
+     * @throws IllegalArgumentException if fewer than two folds hold records, or a training part has fewer
+     *                                  than two records
      */
     public static CvCurve run(LassoPath full, FoldMoments folds, int[] featureCols, int targetCol,
                               PathOptions options) {
@@ -40,24 +42,37 @@ public final class CrossValidation {
             }
         }
         int k = folds.folds();
-        double[][] errors = new double[k][grid.length];
-        double[] weights = new double[k];
+        List<double[]> errors = new ArrayList<>();
+        List<Double> weights = new ArrayList<>();
         for (int f = 0; f < k; f++) {
             Moments held = folds.heldOut(f);
+            if (!(held.totalWeight() > 0)) {
+                continue;
+            }
             Moments train = folds.training(f);
-            if (!(held.totalWeight() > 0) || train.count() < 2) {
-                throw new IllegalArgumentException("fold " + f + " of " + k + " has " + held.count()
-                        + " held-out and " + train.count() + " training records; use fewer folds");
+            if (train.count() < 2) {
+                throw new IllegalArgumentException("fold " + f + " of " + k + " leaves " + train.count()
+                        + " training record(s); use fewer folds");
             }
             RegressionMoments heldOut = RegressionMoments.of(held, featureCols, targetCol);
             RegressionMoments training = RegressionMoments.of(train, featureCols, targetCol);
             LassoPath path = new PathEngine(featureCols.length).fit(training.gramInput(), options);
+            double[] e = new double[grid.length];
             for (int g = 0; g < grid.length; g++) {
                 PathPoint point = PathPoint.at(path, grid[g]);
-                errors[f][g] = heldOut.squaredError(point.intercept(), point.raw());
+                e[g] = heldOut.squaredError(point.intercept(), point.raw());
             }
-            weights[f] = held.totalWeight();
+            errors.add(e);
+            weights.add(held.totalWeight());
         }
-        return CvCurve.of(grid, errors, weights);
+        if (errors.size() < 2) {
+            throw new IllegalArgumentException("only " + errors.size() + " of " + k
+                    + " folds hold records; cross-validation needs at least 2");
+        }
+        double[] w = new double[weights.size()];
+        for (int f = 0; f < w.length; f++) {
+            w[f] = weights.get(f);
+        }
+        return CvCurve.of(grid, errors.toArray(new double[0][]), w);
     }
 }

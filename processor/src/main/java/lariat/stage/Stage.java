@@ -6,6 +6,7 @@ import lariat.codec.KeyLayouts;
 import lariat.codec.Reading;
 import lariat.codec.Rejection;
 import lariat.codec.Skipped;
+import org.apache.kafka.clients.consumer.CloseOptions;
 import org.apache.kafka.clients.consumer.Consumer;
 import org.apache.kafka.clients.consumer.ConsumerRebalanceListener;
 import org.apache.kafka.clients.consumer.ConsumerRecord;
@@ -476,7 +477,7 @@ public final class Stage implements AutoCloseable {
 
     private static void closeQuietly(Consumer<byte[], byte[]> c, Duration timeout) {
         try {
-            c.close(timeout);
+            c.close(CloseOptions.timeout(timeout));
         } catch (KafkaException e) {
             LOG.warn("consumer close failed: {}", e.toString());
         }

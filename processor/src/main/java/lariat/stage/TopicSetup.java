@@ -8,6 +8,7 @@ import org.apache.kafka.clients.admin.TopicDescription;
 import org.apache.kafka.common.config.ConfigResource;
 import org.apache.kafka.common.config.TopicConfig;
 import org.apache.kafka.common.errors.TopicExistsException;
+import org.apache.kafka.common.errors.UnknownTopicOrPartitionException;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
 
@@ -66,7 +67,7 @@ public final class TopicSetup {
     }
 
     private void checkSnapshot(int inputPartitions) throws InterruptedException {
-        int sp = describe(s.snapshotTopic()).orElseThrow().partitions().size();
+        int sp = awaitDescribed(s.snapshotTopic()).partitions().size();
         List<String> problems = new ArrayList<>();
         if (sp != inputPartitions) {
             problems.add("has " + sp + " partitions but input topic '" + s.inputTopic() + "' has "
@@ -112,6 +113,19 @@ public final class TopicSetup {
         }
     }
 
+    private TopicDescription awaitDescribed(String topic) throws InterruptedException {
+        long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(TIMEOUT_S);
+        Optional<TopicDescription> d = describe(topic);
+        while (d.isEmpty()) {
+            if (System.nanoTime() > deadline) {
+                throw new TopicMismatchException("topic '" + topic + "' was created but does not appear");
+            }
+            Thread.sleep(100);
+            d = describe(topic);
+        }
+        return d.get();
+    }
+
     private Optional<TopicDescription> describe(String topic) throws InterruptedException {
         try {
             Set<String> names = admin.listTopics().names().get(TIMEOUT_S, TimeUnit.SECONDS);
@@ -129,7 +143,18 @@ public final class TopicSetup {
     private Map<String, ConfigEntry> config(String topic) throws InterruptedException {
         ConfigResource r = new ConfigResource(ConfigResource.Type.TOPIC, topic);
         try {
-            Config c = admin.describeConfigs(List.of(r)).all().get(TIMEOUT_S, TimeUnit.SECONDS).get(r);
+            Config c = null;
+            long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(TIMEOUT_S);
+            while (c == null) {
+                try {
+                    c = admin.describeConfigs(List.of(r)).all().get(TIMEOUT_S, TimeUnit.SECONDS).get(r);
+                } catch (ExecutionException e) {
+                    if (!(e.getCause() instanceof UnknownTopicOrPartitionException) || System.nanoTime() > deadline) {
+                        throw e;
+                    }
+                    Thread.sleep(100);
+                }
+            }
             Map<String, ConfigEntry> out = new java.util.HashMap<>();
             for (ConfigEntry e : c.entries()) {
                 out.put(e.name(), e);

@@ -1,0 +1,23 @@
+package lariat.stage;
+
+import org.junit.jupiter.api.Test;
+
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+class StageMetricsTest {
+
+    @Test
+    void render_counters_inPrometheusTextFormat() {
+        StageMetrics m = new StageMetrics();
+        m.recordIn();
+        m.recordIn();
+        m.rejected("BAD_MARKER");
+        m.refit(0.25);
+        m.lag(17);
+        String text = m.render();
+        assertTrue(text.contains("# TYPE lariat_records_in_total counter\nlariat_records_in_total 2\n"), text);
+        assertTrue(text.contains("lariat_records_rejected_total{reason=\"BAD_MARKER\"} 1\n"), text);
+        assertTrue(text.contains("lariat_refit_seconds_total 0.25\n"), text);
+        assertTrue(text.contains("# TYPE lariat_consumer_lag_records gauge\nlariat_consumer_lag_records 17\n"), text);
+    }
+}
