@@ -502,11 +502,11 @@ public final class Stage implements AutoCloseable {
             states.drop(tp.partition());
             work.remove(tp.partition());
             layouts.remove(tp.partition());
-            SnapshotReader.Partition snap = reader.read(new TopicPartition(s.snapshotTopic(), tp.partition()));
+            OffsetAndMetadata c = committed.get(tp);
+            SnapshotReader.Partition snap = readNotBehind(tp, c);
             for (Map.Entry<String, SnapshotReader.Restored> e : snap.states.entrySet()) {
                 install(tp, e.getKey(), e.getValue());
             }
-            OffsetAndMetadata c = committed.get(tp);
             long position = c != null ? c.offset() : Math.max(snap.nextOffset, 0);
             if (c != null && snap.nextOffset >= 0 && snap.nextOffset != c.offset()) {
                 LOG.warn("{}: committed offset {} differs from the snapshot's position {}; using the committed one",
@@ -518,6 +518,34 @@ public final class Stage implements AutoCloseable {
         metrics.restored((System.nanoTime() - t0) / 1e9);
         metrics.keys(states.size());
         ready = wasReady;
+    }
+
+    /**
+     * Reads the snapshot partition of {@code tp}, again every 500 ms while its position marker is
+     * behind the committed offset {@code c}, for at most {@code restore.timeout.ms}. Marker and
+     * offsets commit in one transaction, yet a read_committed read ends at the last stable offset:
+     * an open transaction of a dead instance (one killed before it added its offsets, so nothing
+     * holds back the committed-offset fetch) hides every snapshot committed after it until the
+     * coordinator aborts it after {@code transaction.timeout.ms}, while the group offsets live in
+     * another log and move on. Restoring that stale state and seeking to {@code c} would skip the
+     * records in between. After the timeout the last read is returned and the caller keeps the
+     * committed offset, as for offsets reset on purpose.
+     */
+    private SnapshotReader.Partition readNotBehind(TopicPartition tp, OffsetAndMetadata c) {
+        TopicPartition stp = new TopicPartition(s.snapshotTopic(), tp.partition());
+        long deadline = System.nanoTime() + TimeUnit.MILLISECONDS.toNanos(s.restoreTimeoutMs());
+        SnapshotReader.Partition snap = reader.read(stp);
+        boolean logged = false;
+        while (c != null && snap.nextOffset < c.offset() && !stopping && System.nanoTime() < deadline) {
+            if (!logged) {
+                LOG.info("{}: snapshot position {} is behind the committed offset {} (an open transaction on {}?); "
+                        + "waiting for it to end", tp, snap.nextOffset, c.offset(), stp);
+                logged = true;
+            }
+            pauseUnlessStopping(500);
+            snap = reader.read(stp);
+        }
+        return snap;
     }
 
     private void install(TopicPartition tp, String key, SnapshotReader.Restored r) {
