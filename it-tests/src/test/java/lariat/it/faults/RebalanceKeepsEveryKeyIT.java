@@ -15,6 +15,9 @@ import org.junit.jupiter.api.Test;
  * so distinct transactional ids) share a four-partition input; one is killed with SIGKILL and not
  * restarted, so its partitions move to the survivor once its session expires; then a third
  * instance joins and takes partitions from the survivor. Readings keep arriving throughout.
+ * {@code transaction.timeout.ms} is 10 s: a killed instance's open transaction holds back every
+ * read_committed reader of the partitions it wrote until the coordinator aborts it, and with the
+ * 60 s default the run would mostly wait for that.
  *
  * <p>At the end the two live instances hold every partition, every station has models, each
  * station's versions are 1..n in order (monotonic, contiguous, across owners), and each last
@@ -31,7 +34,7 @@ class RebalanceKeepsEveryKeyIT {
     @Test
     void killOneAddOne_midRun_everyKeyKeepsContiguousVersionsAndOracleMoments() throws Exception {
         Random moments = new Random(SEED);
-        try (FaultRun run = FaultRun.create("rebalance", PARTITIONS, Map.of());
+        try (FaultRun run = FaultRun.create("rebalance", PARTITIONS, Map.of("transaction.timeout.ms", "10000"));
              ReadingFeeder feeder = ReadingFeeder.start(run, SEED, STATIONS, 80, 100_000)) {
             StageProcess a = run.start("a");
             StageProcess b = run.start("b");
