@@ -328,7 +328,7 @@ final class FaultRun implements AutoCloseable {
     }
 
     @Override
-    public void close() throws InterruptedException {
+    public void close() {
         producer.close(Duration.ofSeconds(10));
         for (StageProcess s : started) {
             s.close();

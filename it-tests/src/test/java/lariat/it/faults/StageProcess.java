@@ -89,15 +89,23 @@ final class StageProcess implements AutoCloseable {
         return log;
     }
 
-    /** SIGTERM (a graceful shutdown), then SIGKILL if the stage has not exited in time. */
+    /**
+     * SIGTERM (a graceful shutdown), then SIGKILL if the stage has not exited in time or this
+     * thread is interrupted while waiting (the interrupt flag is kept).
+     */
     @Override
-    public void close() throws InterruptedException {
+    public void close() {
         if (!process.isAlive()) {
             return;
         }
         process.destroy();
-        if (!process.waitFor(WAIT_S, TimeUnit.SECONDS)) {
-            kill();
+        try {
+            if (process.waitFor(WAIT_S, TimeUnit.SECONDS)) {
+                return;
+            }
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
         }
+        process.destroyForcibly();
     }
 }
