@@ -13,6 +13,7 @@ import org.apache.kafka.clients.producer.ProducerRecord;
 import org.apache.kafka.common.KafkaException;
 import org.apache.kafka.common.TopicPartition;
 import org.apache.kafka.common.errors.InterruptException;
+import org.apache.kafka.common.errors.RetriableException;
 import org.apache.kafka.common.errors.WakeupException;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
@@ -55,6 +56,8 @@ public final class Stage implements AutoCloseable {
 
     private static final Logger LOG = LoggerFactory.getLogger(Stage.class);
     private static final Duration IDLE_POLL = Duration.ofMillis(200);
+    private static final long REOPEN_BACKOFF_MIN_MS = 500;
+    private static final long REOPEN_BACKOFF_MAX_MS = 5_000;
 
     private final StageSettings s;
     private final Refitter refitter;
@@ -390,8 +393,40 @@ public final class Stage implements AutoCloseable {
         assigned.clear();
         ready = false;
         closeClients(Duration.ofMillis(s.closeTimeoutMs()));
-        if (!stopping) {
-            openClients();
+        reopenClients();
+    }
+
+    /**
+     * Opens new clients until it works or the stage is stopping. While the cluster cannot be
+     * reached, {@code initTransactions} throws a retriable {@code TimeoutException} after
+     * {@code max.block.ms}; letting it escape would end the stage during a broker outage, so it is
+     * retried with a capped exponential backoff. A non-retriable error (e.g. authorization) still
+     * ends the stage.
+     */
+    private void reopenClients() {
+        long backoffMs = REOPEN_BACKOFF_MIN_MS;
+        while (!stopping) {
+            try {
+                openClients();
+                return;
+            } catch (RetriableException e) {
+                LOG.warn("cannot create the clients ({}); retrying in {} ms", e.toString(), backoffMs);
+                closeClients(Duration.ofMillis(s.closeTimeoutMs()));
+                pauseUnlessStopping(backoffMs);
+                backoffMs = Math.min(2 * backoffMs, REOPEN_BACKOFF_MAX_MS);
+            }
+        }
+    }
+
+    private void pauseUnlessStopping(long ms) {
+        long end = System.nanoTime() + TimeUnit.MILLISECONDS.toNanos(ms);
+        try {
+            while (!stopping && System.nanoTime() < end) {
+                Thread.sleep(50);
+            }
+        } catch (InterruptedException e) {
+            stopping = true;
+            Thread.currentThread().interrupt();
         }
     }
 
@@ -450,11 +485,11 @@ public final class Stage implements AutoCloseable {
             states.drop(tp.partition());
             work.remove(tp.partition());
             layouts.remove(tp.partition());
-            SnapshotReader.Partition snap = reader.read(new TopicPartition(s.snapshotTopic(), tp.partition()));
+            OffsetAndMetadata c = committed.get(tp);
+            SnapshotReader.Partition snap = readNotBehind(tp, c);
             for (Map.Entry<String, SnapshotReader.Restored> e : snap.states.entrySet()) {
                 install(tp, e.getKey(), e.getValue());
             }
-            OffsetAndMetadata c = committed.get(tp);
             long position = c != null ? c.offset() : Math.max(snap.nextOffset, 0);
             if (c != null && snap.nextOffset >= 0 && snap.nextOffset != c.offset()) {
                 LOG.warn("{}: committed offset {} differs from the snapshot's position {}; using the committed one",
@@ -466,6 +501,34 @@ public final class Stage implements AutoCloseable {
         metrics.restored((System.nanoTime() - t0) / 1e9);
         metrics.keys(states.size());
         ready = wasReady;
+    }
+
+    /**
+     * Reads the snapshot partition of {@code tp}, again every 500 ms while its position marker is
+     * behind the committed offset {@code c}, for at most {@code restore.timeout.ms}. Marker and
+     * offsets commit in one transaction, yet a read_committed read ends at the last stable offset:
+     * an open transaction of a dead instance (one killed before it added its offsets, so nothing
+     * holds back the committed-offset fetch) hides every snapshot committed after it until the
+     * coordinator aborts it after {@code transaction.timeout.ms}, while the group offsets live in
+     * another log and move on. Restoring that stale state and seeking to {@code c} would skip the
+     * records in between. After the timeout the last read is returned and the caller keeps the
+     * committed offset, as for offsets reset on purpose.
+     */
+    private SnapshotReader.Partition readNotBehind(TopicPartition tp, OffsetAndMetadata c) {
+        TopicPartition stp = new TopicPartition(s.snapshotTopic(), tp.partition());
+        long deadline = System.nanoTime() + TimeUnit.MILLISECONDS.toNanos(s.restoreTimeoutMs());
+        SnapshotReader.Partition snap = reader.read(stp);
+        boolean logged = false;
+        while (c != null && snap.nextOffset < c.offset() && !stopping && System.nanoTime() < deadline) {
+            if (!logged) {
+                LOG.info("{}: snapshot position {} is behind the committed offset {} (an open transaction on {}?); "
+                        + "waiting for it to end", tp, snap.nextOffset, c.offset(), stp);
+                logged = true;
+            }
+            pauseUnlessStopping(500);
+            snap = reader.read(stp);
+        }
+        return snap;
     }
 
     private void install(TopicPartition tp, String key, SnapshotReader.Restored r) {
