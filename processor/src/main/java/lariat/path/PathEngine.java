@@ -482,18 +482,17 @@ public final class PathEngine {
                 .coefficients(std, raw, intercept).fit(rss, r2, df).events(entered, left).build();
     }
 
-    /** C_yy − 2βᵀc + βᵀGβ with G the correlation matrix (ridge removed); negatives from rounding become 0. */
+    /**
+     * C_yy − 2βᵀc + βᵀGβ with G the correlation matrix (ridge removed), from the current correlations: since
+     * (G + λ₂I)β = c − ĉ, it equals C_yy − βᵀ(c + ĉ + λ₂β), a sum over the active set only (O(|A|) instead
+     * of O(|A|²)). Negatives from rounding become 0.
+     */
     private double residualSumOfSquares() {
         double ridge = options.ridge();
         double rss = in.cyy();
         for (int k = 0; k < size; k++) {
             int i = active[k];
-            double gb = 0;
-            for (int l = 0; l < size; l++) {
-                gb += g[i * p + active[l]] * beta[active[l]];
-            }
-            gb -= ridge * beta[i];
-            rss += beta[i] * (gb - 2 * c[i]);
+            rss -= beta[i] * (c[i] + chat[i] + ridge * beta[i]);
         }
         return Math.max(rss, 0);
     }
