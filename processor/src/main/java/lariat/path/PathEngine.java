@@ -13,7 +13,9 @@ import java.util.List;
  *   <li>Standardize from the moments: d_j = sqrt(C_jj), G = D⁻¹C_xxD⁻¹ (plus λ₂I for the elastic net of
  *       Zou and Hastie, J. R. Statist. Soc. B 67(2), 2005), c = D⁻¹C_xy. The response is centered, not
  *       scaled. Weighted inner products need no special care: the moments are already weighted.</li>
- *   <li>Current correlations ĉ = c − Gβ; the penalty is λ = max_j |ĉ_j| (positive variant: max_j ĉ_j).</li>
+ *   <li>Current correlations ĉ = c − Gβ; the penalty is λ = max_j |ĉ_j| (positive variant: max_j ĉ_j).
+ *       ĉ is updated in place after each step, ĉ ← ĉ − γa, in a fixed order of operations, so a path is
+ *       a pure function of its input, bit for bit.</li>
  *   <li>With active set A and signs s: G_AA q = s_A, A_A = (s_Aᵀq)^(−1/2), w = A_A q, a = G_{·A}w. Moving
  *       β_A += γw lowers every active |ĉ_j| by γA_A. The step is the smallest γ ≥ 0 of (λ − ĉ_j)/(A_A − a_j)
  *       and (λ + ĉ_j)/(A_A + a_j) over inactive j (only the first in the positive variant), capped by
