@@ -50,12 +50,8 @@ final class ActiveCholesky {
         int row = column * p;
         double norm = 0;
         for (int i = 0; i < size; i++) {
-            double v = g[row + active[i]];
             int li = i * capacity;
-            for (int k = 0; k < i; k++) {
-                v -= l[li + k] * probeRow[k];
-            }
-            v /= l[li + i];
+            double v = (g[row + active[i]] - dot(l, li, probeRow, i)) / l[li + i];
             probeRow[i] = v;
             norm += v * v;
         }
@@ -110,20 +106,58 @@ final class ActiveCholesky {
      * may be the same array as {@code x}.
      */
     void solve(double[] b, double[] x) {
-        for (int i = 0; i < size; i++) {
-            double v = b[i];
+        forward(b, x, 0);
+        backward(x);
+    }
+
+    /**
+     * Solves L x = b for entries {@code from} … {@link #size()}−1 of {@code x}, taking entries 0 … from−1 of
+     * {@code x} as already solved (row i of the forward solve reads only x_0 … x_{i−1}). Modifies {@code x};
+     * {@code b} is read only and may be the same array as {@code x}. After {@link #remove(int)} of position
+     * k, rows 0 … k−1 of L are unchanged, so a solution of the old factor stays valid for entries below k.
+     */
+    void forward(double[] b, double[] x, int from) {
+        for (int i = from; i < size; i++) {
             int li = i * capacity;
-            for (int k = 0; k < i; k++) {
-                v -= l[li + k] * x[k];
-            }
-            x[i] = v / l[li + i];
+            x[i] = (b[i] - dot(l, li, x, i)) / l[li + i];
         }
+    }
+
+    /**
+     * Solves Lᵀ x = b in place on the first {@link #size()} entries ({@code x} holds b on entry). Column
+     * oriented: once x_i is known, row i of L (contiguous) is subtracted from the entries before it, so L is
+     * read by rows, never down a column. Modifies {@code x}.
+     */
+    void backward(double[] x) {
         for (int i = size - 1; i >= 0; i--) {
-            double v = x[i];
-            for (int k = i + 1; k < size; k++) {
-                v -= l[k * capacity + i] * x[k];
+            int li = i * capacity;
+            double xi = x[i] / l[li + i];
+            x[i] = xi;
+            for (int k = 0; k < i; k++) {
+                x[k] -= l[li + k] * xi;
             }
-            x[i] = v / l[i * capacity + i];
         }
+    }
+
+    /**
+     * Σ_{k &lt; n} l[lo + k]·x[k] with four partial sums in a fixed order (the compiler does not reorder
+     * floating-point additions, so one chain would be bound by the latency of each addition).
+     */
+    private static double dot(double[] l, int lo, double[] x, int n) {
+        double s0 = 0;
+        double s1 = 0;
+        double s2 = 0;
+        double s3 = 0;
+        int k = 0;
+        for (; k + 3 < n; k += 4) {
+            s0 += l[lo + k] * x[k];
+            s1 += l[lo + k + 1] * x[k + 1];
+            s2 += l[lo + k + 2] * x[k + 2];
+            s3 += l[lo + k + 3] * x[k + 3];
+        }
+        for (; k < n; k++) {
+            s0 += l[lo + k] * x[k];
+        }
+        return (s0 + s1) + (s2 + s3);
     }
 }

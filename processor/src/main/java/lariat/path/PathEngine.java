@@ -13,7 +13,9 @@ import java.util.List;
  *   <li>Standardize from the moments: d_j = sqrt(C_jj), G = D⁻¹C_xxD⁻¹ (plus λ₂I for the elastic net of
  *       Zou and Hastie, J. R. Statist. Soc. B 67(2), 2005), c = D⁻¹C_xy. The response is centered, not
  *       scaled. Weighted inner products need no special care: the moments are already weighted.</li>
- *   <li>Current correlations ĉ = c − Gβ; the penalty is λ = max_j |ĉ_j| (positive variant: max_j ĉ_j).</li>
+ *   <li>Current correlations ĉ = c − Gβ; the penalty is λ = max_j |ĉ_j| (positive variant: max_j ĉ_j).
+ *       ĉ is updated in place after each step, ĉ ← ĉ − γa, in a fixed order of operations, so a path is
+ *       a pure function of its input, bit for bit.</li>
  *   <li>With active set A and signs s: G_AA q = s_A, A_A = (s_Aᵀq)^(−1/2), w = A_A q, a = G_{·A}w. Moving
  *       β_A += γw lowers every active |ĉ_j| by γA_A. The step is the smallest γ ≥ 0 of (λ − ĉ_j)/(A_A − a_j)
  *       and (λ + ĉ_j)/(A_A + a_j) over inactive j (only the first in the positive variant), capped by
@@ -61,6 +63,8 @@ public final class PathEngine {
     private final double[] w;
     private final int[] active;
     private final int[] signs;
+    private final double[] signValues;
+    private final double[] v;
     private final int[] status;
     private final ActiveCholesky cholesky;
 
@@ -75,6 +79,7 @@ public final class PathEngine {
     private int dropPosition;
     private boolean collinearFound;
     private int currentStep;
+    private int vSolved;
 
     /** @param p number of predictor columns of every input this engine will fit, ≥ 1 */
     public PathEngine(int p) {
@@ -92,6 +97,8 @@ public final class PathEngine {
         this.w = new double[p];
         this.active = new int[p];
         this.signs = new int[p];
+        this.signValues = new double[p];
+        this.v = new double[p];
         this.status = new int[p];
         this.cholesky = new ActiveCholesky(p);
     }
@@ -126,7 +133,7 @@ public final class PathEngine {
     private LassoPath run() {
         reset();
         standardize();
-        updateCorrelations();
+        recomputeCorrelations();
         lambda = currentLambda();
         lambdaMax = lambda;
         List<Knot> knots = new ArrayList<>(2 * p + 2);
@@ -198,6 +205,7 @@ public final class PathEngine {
         size = 0;
         collinearFound = false;
         currentStep = 0;
+        vSolved = 0;
         cholesky.clear();
         java.util.Arrays.fill(beta, 0);
         java.util.Arrays.fill(status, INACTIVE);
@@ -237,19 +245,22 @@ public final class PathEngine {
         return cyy <= 0 || cyy <= CONSTANT_TOLERANCE * in.totalWeight() * in.meanY() * in.meanY();
     }
 
-    /** ĉ = c − (G + λ₂I)β over the columns not excluded. */
-    private void updateCorrelations() {
+    /**
+     * ĉ = c − (G + λ₂I)β exactly, as |A| passes over contiguous rows of G (G is symmetric, row A_k is column
+     * A_k); entries of excluded columns are not meaningful. Only the start uses it: β = 0 there, so ĉ = c.
+     */
+    private void recomputeCorrelations() {
+        System.arraycopy(c, 0, chat, 0, p);
+        for (int k = 0; k < size; k++) {
+            int column = active[k];
+            axpy(-beta[column], column * p, chat);
+        }
+    }
+
+    /** y_j += alpha·G[offset + j] for every j. */
+    private void axpy(double alpha, int offset, double[] y) {
         for (int j = 0; j < p; j++) {
-            if (status[j] == EXCLUDED) {
-                chat[j] = 0;
-                continue;
-            }
-            double v = c[j];
-            int row = j * p;
-            for (int k = 0; k < size; k++) {
-                v -= g[row + active[k]] * beta[active[k]];
-            }
-            chat[j] = v;
+            y[j] += alpha * g[offset + j];
         }
     }
 
@@ -299,6 +310,7 @@ public final class PathEngine {
         cholesky.commit(column);
         active[size] = column;
         signs[size] = options.positive() || chat[column] >= 0 ? 1 : -1;
+        signValues[size] = signs[size];
         status[column] = ACTIVE;
         size++;
     }
@@ -308,6 +320,8 @@ public final class PathEngine {
         cholesky.remove(position);
         System.arraycopy(active, position + 1, active, position, size - position - 1);
         System.arraycopy(signs, position + 1, signs, position, size - position - 1);
+        System.arraycopy(signValues, position + 1, signValues, position, size - position - 1);
+        vSolved = Math.min(vSolved, position);
         size--;
         beta[column] = 0;
         status[column] = INACTIVE;
@@ -329,36 +343,52 @@ public final class PathEngine {
         for (int k = 0; k < size; k++) {
             beta[active[k]] += gamma * w[k];
         }
-        if (dropPosition >= 0) {
-            beta[active[dropPosition]] = 0;
+        for (int j = 0; j < p; j++) {
+            chat[j] -= gamma * a[j];
         }
-        updateCorrelations();
+        if (dropPosition >= 0) {
+            int column = active[dropPosition];
+            axpy(beta[column], column * p, chat);
+            beta[column] = 0;
+        }
         return hitter;
     }
 
-    /** Fills q, w (by active position), A_A and a = G_{·A}w. */
+    /**
+     * Fills q, w (by active position), A_A and a = G_{·A}w. With v = L⁻¹s_A (kept across steps: one new
+     * entry per joining column, entries from the dropped position on after a drop), s_AᵀG_AA⁻¹s_A = ‖v‖², so
+     * A_A = 1/‖v‖ and q = L⁻ᵀv. a is built as |A| axpy passes over contiguous rows of G, four at a time.
+     */
     private void direction() {
-        for (int k = 0; k < size; k++) {
-            q[k] = signs[k];
-        }
-        cholesky.solve(q, q);
+        cholesky.forward(signValues, v, vSolved);
+        vSolved = size;
         double sq = 0;
         for (int k = 0; k < size; k++) {
-            sq += signs[k] * q[k];
+            q[k] = v[k];
+            sq += v[k] * v[k];
         }
+        cholesky.backward(q);
         directionScale = 1 / Math.sqrt(sq);
         for (int k = 0; k < size; k++) {
             w[k] = directionScale * q[k];
         }
-        for (int j = 0; j < p; j++) {
-            double v = 0;
-            if (status[j] != EXCLUDED) {
-                int row = j * p;
-                for (int k = 0; k < size; k++) {
-                    v += g[row + active[k]] * w[k];
-                }
+        java.util.Arrays.fill(a, 0);
+        int k = 0;
+        for (; k + 3 < size; k += 4) {
+            double w0 = w[k];
+            double w1 = w[k + 1];
+            double w2 = w[k + 2];
+            double w3 = w[k + 3];
+            int r0 = active[k] * p;
+            int r1 = active[k + 1] * p;
+            int r2 = active[k + 2] * p;
+            int r3 = active[k + 3] * p;
+            for (int j = 0; j < p; j++) {
+                a[j] += w0 * g[r0 + j] + w1 * g[r1 + j] + w2 * g[r2 + j] + w3 * g[r3 + j];
             }
-            a[j] = v;
+        }
+        for (; k < size; k++) {
+            axpy(w[k], active[k] * p, a);
         }
     }
 
@@ -454,18 +484,17 @@ public final class PathEngine {
                 .coefficients(std, raw, intercept).fit(rss, r2, df).events(entered, left).build();
     }
 
-    /** C_yy − 2βᵀc + βᵀGβ with G the correlation matrix (ridge removed); negatives from rounding become 0. */
+    /**
+     * C_yy − 2βᵀc + βᵀGβ with G the correlation matrix (ridge removed), from the current correlations: since
+     * (G + λ₂I)β = c − ĉ, it equals C_yy − βᵀ(c + ĉ + λ₂β), a sum over the active set only (O(|A|) instead
+     * of O(|A|²)). Negatives from rounding become 0.
+     */
     private double residualSumOfSquares() {
         double ridge = options.ridge();
         double rss = in.cyy();
         for (int k = 0; k < size; k++) {
             int i = active[k];
-            double gb = 0;
-            for (int l = 0; l < size; l++) {
-                gb += g[i * p + active[l]] * beta[active[l]];
-            }
-            gb -= ridge * beta[i];
-            rss += beta[i] * (gb - 2 * c[i]);
+            rss -= beta[i] * (c[i] + chat[i] + ridge * beta[i]);
         }
         return Math.max(rss, 0);
     }
