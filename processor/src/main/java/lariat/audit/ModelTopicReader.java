@@ -1,5 +1,6 @@
 package lariat.audit;
 
+import lariat.codec.SchemaTrust;
 import lariat.schema.ModelVersion;
 import org.apache.avro.AvroRuntimeException;
 import org.apache.kafka.clients.consumer.Consumer;
@@ -113,7 +114,7 @@ public final class ModelTopicReader {
         if (value == null) {
             return null;
         }
-        ModelSchemaTrust.ensure();
+        SchemaTrust.ensure();
         try {
             return ModelVersion.fromByteBuffer(ByteBuffer.wrap(value));
         } catch (IOException | AvroRuntimeException | IndexOutOfBoundsException | NegativeArraySizeException

@@ -1,5 +1,6 @@
 package lariat.audit;
 
+import lariat.codec.SchemaTrust;
 import lariat.schema.ModelVersion;
 
 /**
@@ -29,7 +30,7 @@ public final class PublishedVersion {
             throw new IllegalArgumentException("modelPartition and modelOffset must be >= 0, were " + modelPartition
                     + " and " + modelOffset);
         }
-        ModelSchemaTrust.ensure();
+        SchemaTrust.ensure();
         return new PublishedVersion(ModelVersion.newBuilder(record).build(), modelPartition, modelOffset);
     }
 

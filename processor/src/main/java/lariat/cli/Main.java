@@ -1,5 +1,6 @@
 package lariat.cli;
 
+import lariat.codec.SchemaTrust;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 
@@ -23,19 +24,9 @@ public final class Main implements Runnable {
     @CommandLine.Spec
     CommandLine.Model.CommandSpec spec;
 
-    /** Avro 1.12 decodes into generated classes only from packages named in this system property. */
-    static final String AVRO_TRUSTED_PACKAGES = "org.apache.avro.SERIALIZABLE_PACKAGES";
-
     public static void main(String[] args) {
-        trustGeneratedSchemaClasses();
+        SchemaTrust.ensure();
         System.exit(new CommandLine(new Main()).execute(args));
-    }
-
-    /** Adds {@code lariat.schema} to Avro's trusted packages unless the user set the property. */
-    static void trustGeneratedSchemaClasses() {
-        if (System.getProperty(AVRO_TRUSTED_PACKAGES) == null) {
-            System.setProperty(AVRO_TRUSTED_PACKAGES, "lariat.schema");
-        }
     }
 
     @Override

@@ -1,5 +1,6 @@
 package lariat.demo;
 
+import lariat.codec.SchemaTrust;
 import java.io.IOException;
 import java.io.PrintWriter;
 import java.io.Writer;
@@ -119,7 +120,7 @@ public final class DemoRun {
      * @throws IllegalStateException when the broker, the topics, the stage or the reader fail
      */
     public Outcome run() throws IOException, InterruptedException {
-        TrustedSchemas.install();
+        SchemaTrust.ensure();
         EmbeddedBroker broker = null;
         try {
             String servers = bootstrapServers;
