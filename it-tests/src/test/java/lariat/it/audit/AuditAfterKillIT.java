@@ -118,7 +118,14 @@ class AuditAfterKillIT {
     @Order(1)
     void audit_stageHistoryWithKillAndRestart_everyVersionPasses() {
         AuditReport r = auditor(stageConfig).audit(models, AuditScope.all());
-        assertTrue(r.verdicts().size() >= 6, "versions audited: " + r.verdicts().size());
+        // How many versions a key gets depends on how the stage's cycles batched the records (wall
+        // time decides when a refit happens); what is certain is one version of each key from before
+        // the kill (each key had 200 records, above refit.every.records, when the kill came) and one
+        // from after it.
+        for (String key : KEYS) {
+            long n = r.verdicts().stream().filter(v -> v.key().equals(key)).count();
+            assertTrue(n >= 2, "versions of " + key + " audited: " + n);
+        }
         for (VersionVerdict v : r.verdicts()) {
             assertEquals(VersionVerdict.Status.PASS, v.status(), v.key() + " v" + v.version() + " "
                     + v.differences() + " " + v.detail());
