@@ -11,6 +11,7 @@ import lariat.config.StageConfig;
 import org.apache.kafka.common.KafkaException;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
 
@@ -50,13 +51,8 @@ public final class AuditCommand implements Callable<Integer> {
             description = "The stage configuration to audit against (.properties).")
     Path config;
 
-    @Option(names = "--bootstrap-servers", paramLabel = "HOSTS",
-            description = "Kafka bootstrap servers (default: the configuration's).")
-    String bootstrapServers;
-
-    @Option(names = "--client-config", paramLabel = "FILE",
-            description = "Kafka client properties (TLS, SASL, ...), over the configuration's.")
-    Path clientConfig;
+    @Mixin
+    ReplayClusterOptions cluster;
 
     @Option(names = "--model-topic", paramLabel = "TOPIC",
             description = "Model topic to audit (default: the configuration's model.topic).")
@@ -101,8 +97,7 @@ public final class AuditCommand implements Callable<Integer> {
             AuditScope scope = AuditScope.of(key, version,
                     from == null ? Long.MIN_VALUE : HistoryFormat.parseTime("--published-from", from),
                     to == null ? Long.MAX_VALUE : HistoryFormat.parseTime("--published-to", to));
-            ClusterClients clients = ClusterClients.of(ClusterClients.properties(c.consumerProperties(), clientConfig,
-                    bootstrapServers), "lariat-audit");
+            ClusterClients clients = ClusterClients.of(cluster.clientProperties(c.consumerProperties()), "lariat-audit");
             Progress progress = quiet ? Progress.NONE
                     : new ProgressLine(new PrintStream(System.err, true, StandardCharsets.UTF_8), 1000);
             Auditor auditor = new Auditor(clients, c, config.toAbsolutePath().getParent(),

@@ -11,6 +11,7 @@ import org.apache.kafka.clients.producer.Producer;
 import org.apache.kafka.common.KafkaException;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
 
@@ -54,13 +55,8 @@ public final class RecomputeCommand implements Callable<Integer> {
             description = "Model topic holding the published history (default: the configuration's model.topic).")
     String publishedTopic;
 
-    @Option(names = "--bootstrap-servers", paramLabel = "HOSTS",
-            description = "Kafka bootstrap servers (default: the configuration's).")
-    String bootstrapServers;
-
-    @Option(names = "--client-config", paramLabel = "FILE",
-            description = "Kafka client properties (TLS, SASL, ...), over the configuration's.")
-    Path clientConfig;
+    @Mixin
+    ReplayClusterOptions cluster;
 
     @Option(names = "--key", paramLabel = "KEY", description = "Model key (default: every key).")
     String key;
@@ -100,8 +96,7 @@ public final class RecomputeCommand implements Callable<Integer> {
                 err.println("--output-topic: " + outputTopic + " is a live topic of the configuration; choose another");
                 return 2;
             }
-            ClusterClients clients = ClusterClients.of(ClusterClients.properties(c.consumerProperties(), clientConfig,
-                    bootstrapServers), "lariat-recompute");
+            ClusterClients clients = ClusterClients.of(cluster.clientProperties(c.consumerProperties()), "lariat-recompute");
             Progress progress = quiet ? Progress.NONE
                     : new ProgressLine(new PrintStream(System.err, true, StandardCharsets.UTF_8), 1000);
             results = new Recomputer(clients, c, config.toAbsolutePath().getParent(), Duration.ofMillis(timeoutMs),
