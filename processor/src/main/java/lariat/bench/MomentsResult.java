@@ -3,26 +3,36 @@ package lariat.bench;
 import java.util.LinkedHashMap;
 import java.util.Map;
 
-/** The outcome of one moments benchmark: shape, block size and timings of the full passes. Immutable. */
+/** The outcome of one moments benchmark: shape, block size, threads and timings of the full passes. Immutable. */
 public final class MomentsResult {
 
     private final int features;
     private final int rows;
     private final int blockSize;
+    private final int threads;
     private final Timings timings;
     private final Timings cpu;
+    private final Timings callerCpu;
 
-    private MomentsResult(int features, int rows, int blockSize, Timings timings, Timings cpu) {
+    private MomentsResult(int features, int rows, int blockSize, int threads, Timings timings, Timings cpu,
+            Timings callerCpu) {
         this.features = features;
         this.rows = rows;
         this.blockSize = blockSize;
+        this.threads = threads;
         this.timings = timings;
         this.cpu = cpu;
+        this.callerCpu = callerCpu;
     }
 
-    /** @param cpu the same passes' CPU time of the benchmark thread */
-    static MomentsResult of(int features, int rows, int blockSize, Timings timings, Timings cpu) {
-        return new MomentsResult(features, rows, blockSize, timings, cpu);
+    /**
+     * @param threads the threads the stream was allowed to use
+     * @param cpu the same passes' CPU time of all Java threads (worker threads included)
+     * @param callerCpu the same passes' CPU time of the benchmark thread alone
+     */
+    static MomentsResult of(int features, int rows, int blockSize, int threads, Timings timings, Timings cpu,
+            Timings callerCpu) {
+        return new MomentsResult(features, rows, blockSize, threads, timings, cpu, callerCpu);
     }
 
     /** Records per second of the median pass. */
@@ -30,14 +40,23 @@ public final class MomentsResult {
         return rows / timings.median();
     }
 
-    /** Records per second of CPU time of the median pass (steadier than wall time on a loaded machine). */
+    /**
+     * Records per second of CPU time of all Java threads, median pass (steadier than wall time on a loaded
+     * machine; counts the stream's worker threads, as a whole-process CPU time of another program would).
+     */
     public double recordsPerCpuSecond() {
         return rows / cpu.median();
     }
 
+    /** Records per second of CPU time of the benchmark thread alone, median pass. */
+    public double recordsPerCallerCpuSecond() {
+        return rows / callerCpu.median();
+    }
+
     /**
-     * The JSON object: records_per_s (the contract), then features, width, rows, block_size, repeat, the
-     * median, minimum and maximum pass time in seconds, and records_per_cpu_s.
+     * The JSON object: records_per_s (the contract), then features, width, rows, block_size, threads, repeat,
+     * the median, minimum and maximum pass time in seconds, records_per_cpu_s (all Java threads) and
+     * records_per_caller_cpu_s (benchmark thread).
      */
     public Map<String, Object> toJson() {
         Map<String, Object> m = new LinkedHashMap<>();
@@ -46,19 +65,22 @@ public final class MomentsResult {
         m.put("width", features + 1);
         m.put("rows", rows);
         m.put("block_size", blockSize);
+        m.put("threads", threads);
         m.put("repeat", timings.runs());
         m.put("median_s", timings.median());
         m.put("min_s", timings.min());
         m.put("max_s", timings.max());
         m.put("records_per_cpu_s", recordsPerCpuSecond());
+        m.put("records_per_caller_cpu_s", recordsPerCallerCpuSecond());
         return m;
     }
 
     public String table() {
-        String head = String.format("%8s %6s %8s %6s %7s %12s %14s %18s%n", "features", "width", "rows", "block",
-                "repeat", "median_s", "records_per_s", "records_per_cpu_s");
-        String row = String.format("%8d %6d %8d %6d %7d %12.6f %14.1f %18.1f%n", features, features + 1, rows,
-                blockSize, timings.runs(), timings.median(), recordsPerSecond(), recordsPerCpuSecond());
+        String head = String.format("%8s %6s %8s %6s %7s %7s %12s %14s %18s %18s%n", "features", "width", "rows",
+                "block", "threads", "repeat", "median_s", "records_per_s", "records_per_cpu_s", "caller_cpu_rec_s");
+        String row = String.format("%8d %6d %8d %6d %7d %7d %12.6f %14.1f %18.1f %18.1f%n", features, features + 1,
+                rows, blockSize, threads, timings.runs(), timings.median(), recordsPerSecond(), recordsPerCpuSecond(),
+                recordsPerCallerCpuSecond());
         return head + row;
     }
 }

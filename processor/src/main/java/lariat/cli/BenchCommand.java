@@ -111,6 +111,10 @@ public final class BenchCommand implements Runnable {
         @Option(names = "--seed", defaultValue = "1", description = "Random seed (default: ${DEFAULT-VALUE}).")
         long seed;
 
+        @Option(names = "--threads", description = "Threads a block merge may use, the benchmark thread included "
+                + "(default: the system property lariat.moments.threads, else the available processors).")
+        Integer threads;
+
         @Option(names = "--json", description = "Write the result as JSON to this file.")
         File json;
 
@@ -118,7 +122,8 @@ public final class BenchCommand implements Runnable {
         public Integer call() throws IOException {
             MomentsResult r;
             try {
-                r = MomentsBench.run(features, rows, blockSize, repeat, seed);
+                int t = threads != null ? threads : lariat.moments.Moments.defaultThreads();
+                r = MomentsBench.run(features, rows, blockSize, repeat, seed, t);
             } catch (IllegalArgumentException e) {
                 spec.commandLine().getErr().println("bench moments: " + e.getMessage());
                 return 2;

@@ -41,7 +41,7 @@ public final class MomentStream {
     private Moments state;
     private long count;
     private int pending;
-    private double[] pendingRows;
+    private double[][] pendingRows;
     private double[] pendingWeights;
     private long[] pendingTimes;
     private double[] decayedWeights;
@@ -68,7 +68,7 @@ public final class MomentStream {
         this.blockSize = blockSize;
         this.halfLifeMs = halfLifeMs;
         int capacity = Math.min(blockSize, 8);
-        this.pendingRows = new double[capacity * width];
+        this.pendingRows = new double[capacity][width];
         this.pendingWeights = new double[capacity];
         this.pendingTimes = new long[capacity];
     }
@@ -81,6 +81,22 @@ public final class MomentStream {
     /** Records per block. */
     public int blockSize() {
         return blockSize;
+    }
+
+    /** Threads a block merge may use ({@link Moments#threads()}). */
+    public int threads() {
+        return state.threads();
+    }
+
+    /**
+     * Sets the threads a block merge of a wide stream may use, the calling thread included (as
+     * {@link Moments#setThreads(int)}: the bytes do not depend on it). The default is
+     * {@link Moments#defaultThreads()}. Modifies this object only.
+     *
+     * @throws IllegalArgumentException unless 1 &lt;= threads &lt;= 64
+     */
+    public void setThreads(int threads) {
+        state.setThreads(threads);
     }
 
     /** Forgetting half-life in milliseconds ({@link Double#POSITIVE_INFINITY} for none). */
@@ -99,7 +115,7 @@ public final class MomentStream {
         RowCheck.row(z, d);
         RowCheck.weight(weight);
         ensureCapacity(pending + 1);
-        System.arraycopy(z, 0, pendingRows, pending * d, d);
+        System.arraycopy(z, 0, pendingRows[pending], 0, d);
         pendingWeights[pending] = weight;
         pendingTimes[pending] = eventTimeMs;
         if (pending + 1 == blockSize) {
@@ -136,7 +152,10 @@ public final class MomentStream {
         c.state = state.copy();
         c.count = count;
         c.pending = pending;
-        c.pendingRows = pendingRows.clone();
+        c.pendingRows = new double[pendingRows.length][];
+        for (int r = 0; r < pendingRows.length; r++) {
+            c.pendingRows[r] = pendingRows[r].clone();
+        }
         c.pendingWeights = pendingWeights.clone();
         c.pendingTimes = pendingTimes.clone();
         return c;
@@ -150,7 +169,7 @@ public final class MomentStream {
         state.write(buf);
         for (int r = 0; r < pending; r++) {
             for (int c = 0; c < d; c++) {
-                buf.putDouble(pendingRows[r * d + c]);
+                buf.putDouble(pendingRows[r][c]);
             }
             buf.putDouble(pendingWeights[r]).putLong(pendingTimes[r]);
         }
@@ -206,14 +225,18 @@ public final class MomentStream {
         s.state = state;
         s.count = count;
         s.ensureCapacity(pending);
+        double[] rows = new double[pending * width];
         for (int r = 0; r < pending; r++) {
             for (int c = 0; c < width; c++) {
-                s.pendingRows[r * width + c] = buf.getDouble();
+                rows[r * width + c] = buf.getDouble();
             }
             s.pendingWeights[r] = buf.getDouble();
             s.pendingTimes[r] = buf.getLong();
         }
-        RowCheck.block(s.pendingRows, s.pendingWeights, s.pendingTimes, pending, width);
+        RowCheck.block(rows, s.pendingWeights, s.pendingTimes, pending, width);
+        for (int r = 0; r < pending; r++) {
+            System.arraycopy(rows, r * width, s.pendingRows[r], 0, width);
+        }
         s.pending = pending;
         return s;
     }
@@ -260,7 +283,11 @@ public final class MomentStream {
             return;
         }
         int capacity = (int) Math.min(blockSize, Math.max((long) rows, 2L * pendingWeights.length));
-        pendingRows = Arrays.copyOf(pendingRows, capacity * d);
+        int old = pendingRows.length;
+        pendingRows = Arrays.copyOf(pendingRows, capacity);
+        for (int r = old; r < capacity; r++) {
+            pendingRows[r] = new double[d];
+        }
         pendingWeights = Arrays.copyOf(pendingWeights, capacity);
         pendingTimes = Arrays.copyOf(pendingTimes, capacity);
     }

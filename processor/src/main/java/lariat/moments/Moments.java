@@ -43,6 +43,10 @@ import java.util.Arrays;
  * result stays finite, before it modifies anything; on failure it throws {@link IllegalArgumentException}
  * and the state is unchanged. Updates allocate nothing except workspaces sized on first use.
  *
+ * <p>The rank-k update of a wide block (width above {@value #SERIAL_MAX_WIDTH}) may be split between
+ * {@link #threads()} threads, the caller and shared daemon workers, by rows of C; each entry is computed by
+ * the same arithmetic whichever thread computes it, so the bytes do not depend on the thread count.
+ *
  * <p>Canonical bytes ({@link #toBytes()}), big-endian: format version (1 byte, {@value #FORMAT_VERSION}),
  * width d (int), count (long), W (double), Σ w² (double), min event time (long), max event time (long),
  * μ_hi (d doubles), μ_lo (d doubles), the upper triangle of C row by row (d(d+1)/2 doubles). Signed zeros
@@ -63,6 +67,14 @@ public final class Moments {
     private static final int MIN_PANEL_ROWS = 16;
     /** Bound on the panel workspace, 4 MiB, which lowers the panel rows for very wide moments. */
     private static final int PANEL_VALUES = 1 << 19;
+    /** System property giving the default {@link #threads()} of new moments. */
+    public static final String THREADS_PROPERTY = "lariat.moments.threads";
+    /** Widths up to this always update on the calling thread (a stage runs many small keys on one thread). */
+    static final int SERIAL_MAX_WIDTH = 64;
+    /** Multiply-adds of one panel below which the block update stays on the calling thread. */
+    private static final long SERIAL_MAX_WORK = 1L << 19;
+    /** Parts per thread of a parallel panel update (more parts balance load on a busy machine). */
+    private static final int PARTS_PER_THREAD = 4;
 
     private final int d;
     private final int panelRows;
@@ -78,8 +90,15 @@ public final class Moments {
     private final double[] delta;
     private double[] blockMean;
     private double[] blockMeanLow;
-    private double[] panel;
-    private double[] blockComoment;
+    private double[][] panel;
+    private double[][] blockComoment;
+    private int threads;
+    private int[] rowBounds;
+    private final PanelJob panelJob = new PanelJob();
+    /** The block being merged: its rows as arrays, or else row-major in blockFlat (read through rowCopy). */
+    private double[][] blockRows;
+    private double[] blockFlat;
+    private double[] rowCopy;
 
     /**
      * Creates empty moments of width {@code width}.
@@ -96,6 +115,50 @@ public final class Moments {
         this.comoment = new double[width * width];
         this.panelRows = Math.max(MIN_PANEL_ROWS, Math.min(PANEL_ROWS, PANEL_VALUES / width));
         this.delta = new double[width];
+        this.threads = defaultThreads();
+    }
+
+    /**
+     * The default thread count of new moments: the system property {@value #THREADS_PROPERTY} if set, else
+     * the available processors (at most {@link Crew#MAX_THREADS}).
+     *
+     * @throws IllegalArgumentException if the property is set to anything but an integer in [1, 64]
+     */
+    public static int defaultThreads() {
+        String v = System.getProperty(THREADS_PROPERTY);
+        if (v == null) {
+            return Math.min(Crew.MAX_THREADS, Runtime.getRuntime().availableProcessors());
+        }
+        try {
+            return checkThreads(Integer.parseInt(v.trim()));
+        } catch (NumberFormatException e) {
+            throw new IllegalArgumentException(THREADS_PROPERTY + " must be an integer in [1, " + Crew.MAX_THREADS
+                    + "], was \"" + v + "\"", e);
+        }
+    }
+
+    private static int checkThreads(int n) {
+        if (n < 1 || n > Crew.MAX_THREADS) {
+            throw new IllegalArgumentException("threads must be in [1, " + Crew.MAX_THREADS + "], was " + n);
+        }
+        return n;
+    }
+
+    /** Threads a block update may use (the calling thread counts as one). */
+    public int threads() {
+        return threads;
+    }
+
+    /**
+     * Sets the threads a block update of a wide block may use, the calling thread included; the others come
+     * from a shared set of daemon threads. Widths up to {@value #SERIAL_MAX_WIDTH} and small blocks always run
+     * on the calling thread. The result is the same bits for every thread count. Modifies this object only.
+     *
+     * @throws IllegalArgumentException unless 1 &lt;= threads &lt;= 64
+     */
+    public void setThreads(int threads) {
+        this.threads = checkThreads(threads);
+        this.rowBounds = null;
     }
 
     /** Number of columns d. */
@@ -149,7 +212,15 @@ public final class Moments {
     public void addBlock(double[] rows, double[] weights, long[] eventTimesMs, int n) {
         RowCheck.block(rows, weights, eventTimesMs, n, d);
         if (n > 0) {
-            mergeBlock(rows, weights, eventTimesMs, n, 1.0);
+            if (rowCopy == null) {
+                rowCopy = new double[d];
+            }
+            blockFlat = rows;
+            try {
+                mergeBlock(null, weights, eventTimesMs, n, 1.0);
+            } finally {
+                blockFlat = null;
+            }
         }
     }
 
@@ -168,13 +239,14 @@ public final class Moments {
             throw new IllegalArgumentException("other has width " + other.d + ", expected width " + d);
         }
         mergeStats(other.count, other.totalWeight, other.sumSquaredWeights, other.mean, other.meanLow,
-                other.comoment, other.minTime, other.maxTime, 1.0);
+                other.comoment, null, other.minTime, other.maxTime, 1.0);
     }
 
     /** An independent deep copy (workspaces are not shared). */
     public Moments copy() {
         Moments c = new Moments(d);
         c.copyFrom(this);
+        c.threads = threads;
         return c;
     }
 
@@ -462,10 +534,32 @@ public final class Moments {
      * Scales the current state's weights by {@code stateFactor} (as {@link #scale(double)}), then merges the
      * block of rows {@code 0..n-1} (n &gt;= 1) with the given weights, all atomically. Weights must be finite
      * and &gt;= 0 (a row whose weight has decayed to zero is counted but carries no weight); the caller has
-     * validated the values. Used directly by {@link MomentStream} for event-time forgetting.
+     * validated the values. Used directly by {@link MomentStream} for event-time forgetting; {@code rows} null
+     * means the row-major {@code blockFlat} set by {@link #addBlock}. Reads the arrays, modifies this object only.
      */
-    void mergeBlock(double[] rows, double[] weights, long[] eventTimesMs, int n, double stateFactor) {
+    void mergeBlock(double[][] rows, double[] weights, long[] eventTimesMs, int n, double stateFactor) {
         ensureBlockWorkspace(n);
+        blockRows = rows;
+        try {
+            mergeRows(weights, eventTimesMs, n, stateFactor);
+        } finally {
+            blockRows = null;
+        }
+    }
+
+    /**
+     * Row r of the block being merged: the caller's array, or a copy in {@code rowCopy} (valid until the next
+     * call), so that the loops over a row index every array alike and compile to SIMD instructions.
+     */
+    private double[] blockRow(int r) {
+        if (blockRows != null) {
+            return blockRows[r];
+        }
+        System.arraycopy(blockFlat, r * d, rowCopy, 0, d);
+        return rowCopy;
+    }
+
+    private void mergeRows(double[] weights, long[] eventTimesMs, int n, double stateFactor) {
         double blockWeight = 0.0;
         double blockSquares = 0.0;
         long blockMin = Long.MAX_VALUE;
@@ -476,28 +570,27 @@ public final class Moments {
             blockMin = Math.min(blockMin, eventTimesMs[r]);
             blockMax = Math.max(blockMax, eventTimesMs[r]);
         }
-        double[] c = blockComoment;
         Arrays.fill(blockMean, 0.0);
         Arrays.fill(blockMeanLow, 0.0);
         if (blockWeight > 0.0 && blockSquares > 0.0) {
-            blockMoments(rows, weights, n, blockWeight);
+            blockMoments(weights, n, blockWeight);
         } else {
             blockWeight = 0.0;
             blockSquares = 0.0;
-            Arrays.fill(c, 0.0);
         }
-        mergeStats(n, blockWeight, blockSquares, blockMean, blockMeanLow, c, blockMin, blockMax, stateFactor);
+        mergeStats(n, blockWeight, blockSquares, blockMean, blockMeanLow, null, blockComoment, blockMin, blockMax,
+                stateFactor);
     }
 
     private void ensureBlockWorkspace(int n) {
         if (blockMean == null) {
             blockMean = new double[d];
             blockMeanLow = new double[d];
-            blockComoment = new double[d * d];
+            blockComoment = new double[d][d];
         }
         int rows = Math.min(n, panelRows);
-        if (panel == null || panel.length < rows * d) {
-            panel = new double[rows * d];
+        if (panel == null || panel.length < rows) {
+            panel = new double[rows][d];
         }
     }
 
@@ -506,23 +599,25 @@ public final class Moments {
      * LeVeque 1983) as a TwoSum pair, and the upper triangle of blockComoment with the centered co-moment,
      * accumulated over panels of at most {@code panelRows} rows (the split does not change the result).
      */
-    private void blockMoments(double[] rows, double[] weights, int n, double blockWeight) {
+    private void blockMoments(double[] weights, int n, double blockWeight) {
+        double[] m = blockMean;
         for (int r = 0; r < n; r++) {
             double w = weights[r];
-            int base = r * d;
+            double[] z = blockRow(r);
             for (int c = 0; c < d; c++) {
-                blockMean[c] += w * rows[base + c];
+                m[c] += w * z[c];
             }
         }
         for (int c = 0; c < d; c++) {
             blockMean[c] /= blockWeight;
             delta[c] = 0.0;
         }
+        double[] sum = delta;
         for (int r = 0; r < n; r++) {
             double w = weights[r];
-            int base = r * d;
+            double[] z = blockRow(r);
             for (int c = 0; c < d; c++) {
-                delta[c] += w * (rows[base + c] - blockMean[c]);
+                sum[c] += w * (z[c] - m[c]);
             }
         }
         for (int c = 0; c < d; c++) {
@@ -531,46 +626,51 @@ public final class Moments {
             blockMeanLow[c] = twoSumError(blockMean[c], correction, hi);
             blockMean[c] = hi;
         }
-        Arrays.fill(blockComoment, 0.0);
+        for (int i = 0; i < d; i++) {
+            Arrays.fill(blockComoment[i], RankUpdate.firstColumn(i), d, 0.0);
+        }
         for (int start = 0; start < n; start += panelRows) {
             int k = Math.min(panelRows, n - start);
-            centerPanel(rows, weights, start, k);
-            RankUpdate.addUpper(panel, k, d, blockComoment);
+            centerPanel(weights, start, k);
+            updatePanel(k);
         }
     }
 
-    /**
-     * Writes √w_r ((z_rc − μ_hi,c) − μ_lo,c) for block rows start..start+k−1 into {@code panel}, column c at
-     * panel[c·k ..], four rows at a time so that each write run is contiguous.
-     */
-    private void centerPanel(double[] rows, double[] weights, int start, int k) {
-        double[] x = panel;
-        int r = 0;
-        for (; r + 4 <= k; r += 4) {
-            int row = start + r;
-            double s0 = Math.sqrt(weights[row]);
-            double s1 = Math.sqrt(weights[row + 1]);
-            double s2 = Math.sqrt(weights[row + 2]);
-            double s3 = Math.sqrt(weights[row + 3]);
-            int b0 = row * d;
-            int b1 = b0 + d;
-            int b2 = b1 + d;
-            int b3 = b2 + d;
-            for (int c = 0; c < d; c++) {
-                double m = blockMean[c];
-                double lo = blockMeanLow[c];
-                int o = c * k + r;
-                x[o] = s0 * ((rows[b0 + c] - m) - lo);
-                x[o + 1] = s1 * ((rows[b1 + c] - m) - lo);
-                x[o + 2] = s2 * ((rows[b2 + c] - m) - lo);
-                x[o + 3] = s3 * ((rows[b3 + c] - m) - lo);
-            }
+    /** blockComoment += panelᵀ panel for the first k panel rows, on several threads if wide enough. */
+    private void updatePanel(int k) {
+        if (threads == 1 || d <= SERIAL_MAX_WIDTH || (long) d * d * k / 2 < SERIAL_MAX_WORK) {
+            RankUpdate.addUpper(panel, k, d, blockComoment);
+            return;
         }
-        for (; r < k; r++) {
+        int parts = Math.min(PARTS_PER_THREAD * threads, d / 8);
+        if (rowBounds == null) {
+            rowBounds = new int[parts + 1];
+            RankUpdate.splitRows(d, parts, rowBounds);
+        }
+        panelJob.k = k;
+        Crew.shared(threads).run(panelJob, parts);
+    }
+
+    /** Part p of a parallel panel update: rows rowBounds[p]..rowBounds[p + 1] − 1 of blockComoment. */
+    private final class PanelJob implements Crew.Job {
+        int k;
+
+        @Override
+        public void runPart(int part) {
+            RankUpdate.addUpper(panel, k, d, blockComoment, rowBounds[part], rowBounds[part + 1]);
+        }
+    }
+
+    /** Writes √w_r ((z_rc − μ_hi,c) − μ_lo,c) for block rows start..start+k−1 into panel rows 0..k−1. */
+    private void centerPanel(double[] weights, int start, int k) {
+        double[] m = blockMean;
+        double[] lo = blockMeanLow;
+        for (int r = 0; r < k; r++) {
             double s = Math.sqrt(weights[start + r]);
-            int base = (start + r) * d;
+            double[] z = blockRow(start + r);
+            double[] x = panel[r];
             for (int c = 0; c < d; c++) {
-                x[c * k + r] = s * ((rows[base + c] - blockMean[c]) - blockMeanLow[c]);
+                x[c] = s * ((z[c] - m[c]) - lo[c]);
             }
         }
     }
@@ -578,9 +678,11 @@ public final class Moments {
     /**
      * Merges summary statistics B into this after scaling this state's weights by {@code stateFactor}.
      * Checks finiteness of the result before writing anything. The arrays of B may alias this object's own.
+     * C_b is either the row-major {@code cb} or the rows {@code cbRows} (the other is null); only its upper
+     * triangle is read.
      */
     private void mergeStats(long n, double wb, double s2b, double[] mub, double[] mubLow, double[] cb,
-            long minB, long maxB, double stateFactor) {
+            double[][] cbRows, long minB, long maxB, double stateFactor) {
         double wa = totalWeight * stateFactor;
         double s2a = sumSquaredWeights * stateFactor * stateFactor;
         boolean aEmpty = wa == 0.0 || s2a == 0.0;
@@ -591,14 +693,20 @@ public final class Moments {
                 scale(stateFactor);
             }
         } else if (aEmpty) {
-            requireFiniteSummary(wb, s2b, mub, cb);
+            requireFiniteSummary(wb, s2b, mub, cb, cbRows);
             System.arraycopy(mub, 0, mean, 0, d);
             System.arraycopy(mubLow, 0, meanLow, 0, d);
-            System.arraycopy(cb, 0, comoment, 0, comoment.length);
+            if (cbRows == null) {
+                System.arraycopy(cb, 0, comoment, 0, comoment.length);
+            } else {
+                for (int i = 0; i < d; i++) {
+                    System.arraycopy(cbRows[i], i, comoment, i * d + i, d - i);
+                }
+            }
             totalWeight = wb;
             sumSquaredWeights = s2b;
         } else {
-            mergeWeighted(wa, s2a, wb, s2b, mub, mubLow, cb, stateFactor);
+            mergeWeighted(wa, s2a, wb, s2b, mub, mubLow, cb, cbRows, stateFactor);
         }
         count += n;
         minTime = Math.min(minTime, minB);
@@ -606,7 +714,7 @@ public final class Moments {
     }
 
     private void mergeWeighted(double wa, double s2a, double wb, double s2b, double[] mub, double[] mubLow,
-            double[] cb, double stateFactor) {
+            double[] cb, double[][] cbRows, double stateFactor) {
         double newWeight = wa + wb;
         double newSquares = s2a + s2b;
         double ratio = wb / newWeight;
@@ -615,7 +723,7 @@ public final class Moments {
             delta[i] = (mub[i] - mean[i]) + (mubLow[i] - meanLow[i]);
         }
         for (int i = 0; i < d; i++) {
-            if (!Double.isFinite(stateFactor * comoment[i * d + i] + cb[i * d + i])) {
+            if (!Double.isFinite(stateFactor * comoment[i * d + i] + entry(cb, cbRows, i, i))) {
                 throw new IllegalArgumentException("merge overflows the co-moment of column " + i);
             }
         }
@@ -624,8 +732,10 @@ public final class Moments {
         for (int i = 0; i < d; i++) {
             double kd = k * delta[i];
             int row = i * d;
+            double[] src = cbRows == null ? cb : cbRows[i];
+            int offset = cbRows == null ? row : 0;
             for (int j = i; j < d; j++) {
-                comoment[row + j] = stateFactor * comoment[row + j] + cb[row + j] + kd * delta[j];
+                comoment[row + j] = stateFactor * comoment[row + j] + src[offset + j] + kd * delta[j];
             }
         }
         totalWeight = newWeight;
@@ -667,12 +777,17 @@ public final class Moments {
         return (a - aVirtual) + (b - bVirtual);
     }
 
-    private void requireFiniteSummary(double w, double s2, double[] mu, double[] c) {
+    /** Entry (i, j) of C_b held row-major in {@code flat} or as rows {@code rows} (the other is null). */
+    private double entry(double[] flat, double[][] rows, int i, int j) {
+        return rows == null ? flat[i * d + j] : rows[i][j];
+    }
+
+    private void requireFiniteSummary(double w, double s2, double[] mu, double[] c, double[][] cRows) {
         if (!Double.isFinite(w) || !Double.isFinite(s2)) {
             throw new IllegalArgumentException("merge overflows the total weight");
         }
         for (int i = 0; i < d; i++) {
-            if (!Double.isFinite(mu[i]) || !Double.isFinite(c[i * d + i])) {
+            if (!Double.isFinite(mu[i]) || !Double.isFinite(entry(c, cRows, i, i))) {
                 throw new IllegalArgumentException("merge overflows the moments of column " + i);
             }
         }
