@@ -11,13 +11,14 @@ matrix are precomputed and not timed; its default copy_Gram=True copy of the Gra
 timed runs after warm-up (the jar warms up for 1 s, none for the whole path at p >= 1000; the library gets
 one untimed call).
 
-Moments: `lariat.jar bench moments` (records through MomentStream, block size as printed) against numpy's
+Moments: `lariat.jar bench moments` (records through MomentStream, block size and threads as printed; the
+jar's default thread count is the available processors) against numpy's
 X.T @ X on the same number of rows of width p + 1 (numpy dispatches this to the BLAS syrk/gemm of
 whatever library it is linked with; the script prints which).
 
 Ratios are library_s / ours_s (above 1: Lariat is faster). Run with Debian's /usr/bin/python3 (python3-
 sklearn 1.2.1, numpy 1.24). Usage: tools/bench/compare_path.py [--jar processor/target/lariat.jar]
-[--quick] [--repeat R].
+[--quick] [--repeat R] [--only path|moments].
 """
 
 import argparse
@@ -192,7 +193,7 @@ def moment_rows(args):
         cpu_ratio = ours["records_per_cpu_s"] / lib_cpu
         target = 1.0 if p <= 100 else 0.5
         rows.append((p, n, ours["block_size"], ours["records_per_s"], lib, ratio, cpu_ratio, f">={target:g}",
-                     "ok" if ratio >= target else "MISS"))
+                     "ok" if ratio >= target else "MISS", ours.get("threads", 1)))
         print(f"  moments p={p}: ours {ours['records_per_s']:.0f}/s, X'X {lib:.0f}/s", file=sys.stderr, flush=True)
     return rows
 
@@ -206,6 +207,7 @@ def main():
     ap.add_argument("--seed", type=int, default=1)
     ap.add_argument("--features", type=int, nargs="*", default=FEATURES)
     ap.add_argument("--quick", action="store_true", help="fewer rows for the moments shapes")
+    ap.add_argument("--only", choices=["path", "moments"], help="run just this section (default: both)")
     ap.add_argument("--prototype", action="store_true",
                     help="also time the benchmark package's prototype kernel (bench path --prototype)")
     args = ap.parse_args()
@@ -219,29 +221,31 @@ def main():
     print(f"numpy BLAS: {blas_in_use()}")
     print(f"load average at start: {load_start[0]:.2f} {load_start[1]:.2f} {load_start[2]:.2f}", flush=True)
 
-    prows = path_rows(args)
-    mrows = moment_rows(args)
+    prows = path_rows(args) if args.only != "moments" else []
+    mrows = moment_rows(args) if args.only != "path" else []
 
-    print()
-    print("Path refit from a prebuilt Gram (rows n = 2p), median seconds; ratio = library_s / ours_s")
-    print(f"{'p':>5} {'n':>5} {'steps':>5} {'ours_k':>6} {'lib_k':>6} {'rep':>3} {'ours_s':>10} "
-          f"{'sklearn_s':>10} {'ratio':>7} {'cpu_rat':>7} {'target':>7} {'':>4} {'proto_s':>9} {'proto_rat':>9}")
-    for r in prows:
-        print(f"{r[0]:>5} {r[1]:>5} {r[2]:>5} {r[3]:>6} {r[4]:>6} {r[5]:>3} {r[6]:>10.5f} {r[7]:>10.5f} "
-              f"{r[8]:>7.2f} {r[9]:>7.2f} {r[10]:>7} {r[11]:>4} {r[12]:>9.5f} {r[13]:>9.2f}")
-    print()
-    print("Moments update, records per second; ratio = ours / numpy X.T @ X")
-    print(f"{'p':>5} {'rows':>7} {'block':>5} {'ours_rec/s':>12} {'numpy_rec/s':>12} {'ratio':>7} {'cpu_rat':>7} "
-          f"{'target':>7} {'':>4}")
-    for r in mrows:
-        print(f"{r[0]:>5} {r[1]:>7} {r[2]:>5} {r[3]:>12.0f} {r[4]:>12.0f} {r[5]:>7.3f} {r[6]:>7.3f} {r[7]:>7} "
-              f"{r[8]:>4}")
+    if args.only != "moments":
+        print()
+        print("Path refit from a prebuilt Gram (rows n = 2p), median seconds; ratio = library_s / ours_s")
+        print(f"{'p':>5} {'n':>5} {'steps':>5} {'ours_k':>6} {'lib_k':>6} {'rep':>3} {'ours_s':>10} "
+              f"{'sklearn_s':>10} {'ratio':>7} {'cpu_rat':>7} {'target':>7} {'':>4} {'proto_s':>9} {'proto_rat':>9}")
+        for r in prows:
+            print(f"{r[0]:>5} {r[1]:>5} {r[2]:>5} {r[3]:>6} {r[4]:>6} {r[5]:>3} {r[6]:>10.5f} {r[7]:>10.5f} "
+                  f"{r[8]:>7.2f} {r[9]:>7.2f} {r[10]:>7} {r[11]:>4} {r[12]:>9.5f} {r[13]:>9.2f}")
+    if args.only != "path":
+        print()
+        print("Moments update, records per second; ratio = ours / numpy X.T @ X")
+        print(f"{'p':>5} {'rows':>7} {'block':>5} {'thr':>3} {'ours_rec/s':>12} {'numpy_rec/s':>12} {'ratio':>7} "
+              f"{'cpu_rat':>7} {'target':>7} {'':>4}")
+        for r in mrows:
+            print(f"{r[0]:>5} {r[1]:>7} {r[2]:>5} {r[9]:>3} {r[3]:>12.0f} {r[4]:>12.0f} {r[5]:>7.3f} {r[6]:>7.3f} "
+                  f"{r[7]:>7} {r[8]:>4}")
     load_end = os.getloadavg()
     print()
     print(f"load average at end: {load_end[0]:.2f} {load_end[1]:.2f} {load_end[2]:.2f}; "
           f"wall time {time.time() - start:.0f} s")
     print("ours_k / lib_k: steps each path actually took; ratio: of median wall times; cpu_rat: of median CPU times "
-          "(ours: the benchmark thread; path library: its calling thread, so BLAS helper threads that spin or work are not counted; numpy X'X: the whole process, BLAS threads included); proto_*: the "
+          "(ours: the benchmark thread for the path, all Java threads for the moments; path library: its calling thread, so BLAS helper threads that spin or work are not counted; numpy X'X: the whole process, BLAS threads included); proto_*: the "
           "prototype kernel (--prototype), ratio library_s / proto_s.")
 
 

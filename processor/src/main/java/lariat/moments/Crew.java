@@ -19,9 +19,13 @@ import java.util.concurrent.locks.LockSupport;
  */
 final class Crew {
 
-    /** A job: part p of 0..parts−1 may run on any thread, in any order relative to the other parts. */
+    /**
+     * A job: part p of 0..parts−1 may run on any thread, in any order relative to the other parts. {@code slot}
+     * numbers the thread running it, 0 for the caller and 1..threads−1 for the workers, so a job can give each
+     * thread its own workspace.
+     */
     interface Job {
-        void runPart(int part);
+        void runPart(int part, int slot);
     }
 
     /** Largest thread count a crew supports (further threads would rarely find work in one block). */
@@ -43,7 +47,8 @@ final class Crew {
     private Crew(int threads) {
         workers = new Thread[threads - 1];
         for (int w = 0; w < workers.length; w++) {
-            Thread t = new Thread(this::work, "lariat-moments-" + threads + "-" + (w + 1));
+            int slot = w + 1;
+            Thread t = new Thread(() -> work(slot), "lariat-moments-" + threads + "-" + slot);
             t.setDaemon(true);
             workers[w] = t;
         }
@@ -73,7 +78,7 @@ final class Crew {
         }
         if (!busy.compareAndSet(false, true)) {
             for (int p = 0; p < parts; p++) {
-                job.runPart(p);
+                job.runPart(p, 0);
             }
             return;
         }
@@ -89,7 +94,7 @@ final class Crew {
                     LockSupport.unpark(t);
                 }
             }
-            claimAndRun();
+            claimAndRun(0);
             awaitParts(parts);
             Throwable f = failure;
             if (f != null) {
@@ -102,7 +107,7 @@ final class Crew {
     }
 
     /** Claims and runs parts of the current generation until none is left. */
-    private void claimAndRun() {
+    private void claimAndRun(int slot) {
         while (true) {
             long s = claims.get();
             int next = (int) (s & 0xFFFF);
@@ -112,7 +117,7 @@ final class Crew {
             }
             if (claims.compareAndSet(s, s + 1)) {
                 try {
-                    job.runPart(next);
+                    job.runPart(next, slot);
                 } catch (Throwable t) {
                     failure = t;
                 }
@@ -138,7 +143,7 @@ final class Crew {
         }
     }
 
-    private void work() {
+    private void work(int slot) {
         long seen = 0;
         while (true) {
             long start = System.nanoTime();
@@ -156,7 +161,7 @@ final class Crew {
                 }
             }
             seen = generation;
-            claimAndRun();
+            claimAndRun(slot);
         }
     }
 

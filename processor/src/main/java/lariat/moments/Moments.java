@@ -73,6 +73,8 @@ public final class Moments {
     static final int SERIAL_MAX_WIDTH = 64;
     /** Multiply-adds of one panel below which the block update stays on the calling thread. */
     private static final long SERIAL_MAX_WORK = 1L << 19;
+    /** Upper entries below which a merge of co-moments stays on the calling thread. */
+    private static final long SERIAL_MAX_MERGE = 1L << 16;
     /** Parts per thread of a parallel panel update (more parts balance load on a busy machine). */
     private static final int PARTS_PER_THREAD = 4;
 
@@ -94,7 +96,9 @@ public final class Moments {
     private double[][] blockComoment;
     private int threads;
     private int[] rowBounds;
-    private final PanelJob panelJob = new PanelJob();
+    private final BlockJob job = new BlockJob();
+    /** Per thread slot: two rows of width d for {@link #mergeRowRange}. */
+    private double[][] mergeRows;
     /** The block being merged: its rows as arrays, or else row-major in blockFlat (read through rowCopy). */
     private double[][] blockRows;
     private double[] blockFlat;
@@ -159,6 +163,7 @@ public final class Moments {
     public void setThreads(int threads) {
         this.threads = checkThreads(threads);
         this.rowBounds = null;
+        this.mergeRows = null;
     }
 
     /** Number of columns d. */
@@ -626,38 +631,71 @@ public final class Moments {
             blockMeanLow[c] = twoSumError(blockMean[c], correction, hi);
             blockMean[c] = hi;
         }
-        for (int i = 0; i < d; i++) {
-            Arrays.fill(blockComoment[i], RankUpdate.firstColumn(i), d, 0.0);
-        }
         for (int start = 0; start < n; start += panelRows) {
             int k = Math.min(panelRows, n - start);
             centerPanel(weights, start, k);
-            updatePanel(k);
+            updatePanel(k, start == 0);
         }
     }
 
-    /** blockComoment += panelᵀ panel for the first k panel rows, on several threads if wide enough. */
-    private void updatePanel(int k) {
+    /**
+     * blockComoment += panelᵀ panel for the first k panel rows (after zeroing it if {@code clear}), on several
+     * threads if the panel is wide and large enough.
+     */
+    private void updatePanel(int k, boolean clear) {
         if (threads == 1 || d <= SERIAL_MAX_WIDTH || (long) d * d * k / 2 < SERIAL_MAX_WORK) {
-            RankUpdate.addUpper(panel, k, d, blockComoment);
+            updateRows(k, clear, 0, d);
             return;
         }
+        job.phase = BlockJob.UPDATE;
+        job.k = k;
+        job.clear = clear;
+        runParts();
+    }
+
+    private void updateRows(int k, boolean clear, int from, int to) {
+        if (clear) {
+            for (int i = from; i < to; i++) {
+                Arrays.fill(blockComoment[i], RankUpdate.firstColumn(i), d, 0.0);
+            }
+        }
+        RankUpdate.addUpper(panel, k, d, blockComoment, from, to);
+    }
+
+    /** Runs {@link #job} on the shared crew, one part per range of rows of C. */
+    private void runParts() {
         int parts = Math.min(PARTS_PER_THREAD * threads, d / 8);
         if (rowBounds == null) {
             rowBounds = new int[parts + 1];
             RankUpdate.splitRows(d, parts, rowBounds);
         }
-        panelJob.k = k;
-        Crew.shared(threads).run(panelJob, parts);
+        Crew.shared(threads).run(job, parts);
     }
 
-    /** Part p of a parallel panel update: rows rowBounds[p]..rowBounds[p + 1] − 1 of blockComoment. */
-    private final class PanelJob implements Crew.Job {
+    /**
+     * Part p of a parallel block step: rows rowBounds[p]..rowBounds[p + 1] − 1 of C, either of the panel
+     * update or of the merge. Each entry is computed the same way whatever part it falls in.
+     */
+    private final class BlockJob implements Crew.Job {
+        static final int UPDATE = 0;
+        static final int MERGE = 1;
+        int phase;
         int k;
+        boolean clear;
+        double stateFactor;
+        double weightProduct;
+        double[] flat;
+        double[][] rows;
 
         @Override
-        public void runPart(int part) {
-            RankUpdate.addUpper(panel, k, d, blockComoment, rowBounds[part], rowBounds[part + 1]);
+        public void runPart(int part, int slot) {
+            int from = rowBounds[part];
+            int to = rowBounds[part + 1];
+            if (phase == UPDATE) {
+                updateRows(k, clear, from, to);
+            } else {
+                mergeRowRange(stateFactor, weightProduct, flat, rows, from, to, slot);
+            }
         }
     }
 
@@ -729,17 +767,54 @@ public final class Moments {
         }
         requireFiniteUpdate(newWeight, newSquares, stateFactor, ratio, k, "merge");
         moveMean(ratio);
-        for (int i = 0; i < d; i++) {
-            double kd = k * delta[i];
-            int row = i * d;
-            double[] src = cbRows == null ? cb : cbRows[i];
-            int offset = cbRows == null ? row : 0;
-            for (int j = i; j < d; j++) {
-                comoment[row + j] = stateFactor * comoment[row + j] + src[offset + j] + kd * delta[j];
+        if (mergeRows == null) {
+            mergeRows = new double[2 * threads][];
+            for (int r = 0; r < mergeRows.length; r++) {
+                mergeRows[r] = new double[d];
+            }
+        }
+        if (threads == 1 || d <= SERIAL_MAX_WIDTH || (long) d * (d + 1) / 2 < SERIAL_MAX_MERGE) {
+            mergeRowRange(stateFactor, k, cb, cbRows, 0, d, 0);
+        } else {
+            job.phase = BlockJob.MERGE;
+            job.stateFactor = stateFactor;
+            job.weightProduct = k;
+            job.flat = cb;
+            job.rows = cbRows;
+            try {
+                runParts();
+            } finally {
+                job.flat = null;
+                job.rows = null;
             }
         }
         totalWeight = newWeight;
         sumSquaredWeights = newSquares;
+    }
+
+    /**
+     * C_ij ← f·C_ij + B_ij + k·δ_i·δ_j for rows i in from..to−1, j &gt;= i (δ in {@code delta}; B row-major in
+     * {@code cb} or as rows {@code cbRows}). Each row goes through the workspace rows of {@code slot}, so that
+     * the loop indexes every array alike and compiles to SIMD instructions; the arithmetic per entry is the
+     * formula as written. Rows of B may alias rows of C: each row is read in full before it is written.
+     */
+    private void mergeRowRange(double f, double k, double[] cb, double[][] cbRows, int from, int to, int slot) {
+        double[] c = mergeRows[2 * slot];
+        double[] dv = delta;
+        for (int i = from; i < to; i++) {
+            int row = i * d;
+            int len = d - i;
+            double[] b = cbRows == null ? mergeRows[2 * slot + 1] : cbRows[i];
+            if (cbRows == null) {
+                System.arraycopy(cb, row + i, b, i, len);
+            }
+            System.arraycopy(comoment, row + i, c, i, len);
+            double kd = k * dv[i];
+            for (int j = i; j < d; j++) {
+                c[j] = f * c[j] + b[j] + kd * dv[j];
+            }
+            System.arraycopy(c, i, comoment, row + i, len);
+        }
     }
 
     /**
