@@ -73,6 +73,10 @@ public final class Moments {
     static final int SERIAL_MAX_WIDTH = 64;
     /** Multiply-adds of one panel below which the block update stays on the calling thread. */
     private static final long SERIAL_MAX_WORK = 1L << 19;
+    /** Block values (rows · width) below which the mean and centering passes stay on the calling thread. */
+    private static final long SERIAL_MAX_PASS = 1L << 14;
+    /** Parts per thread of a parallel mean or centering pass. */
+    private static final int PASS_PARTS_PER_THREAD = 2;
     /** Upper entries below which a merge of co-moments stays on the calling thread. */
     private static final long SERIAL_MAX_MERGE = 1L << 16;
     /** Parts per thread of a parallel panel update (more parts balance load on a busy machine). */
@@ -605,36 +609,65 @@ public final class Moments {
      * accumulated over panels of at most {@code panelRows} rows (the split does not change the result).
      */
     private void blockMoments(double[] weights, int n, double blockWeight) {
+        boolean split = threads > 1 && d > SERIAL_MAX_WIDTH && blockRows != null && (long) n * d >= SERIAL_MAX_PASS;
+        job.weights = weights;
+        job.n = n;
+        try {
+            runPasses(split, BlockJob.MEAN);
+            for (int c = 0; c < d; c++) {
+                blockMean[c] /= blockWeight;
+                delta[c] = 0.0;
+            }
+            runPasses(split, BlockJob.CORRECTION);
+            for (int c = 0; c < d; c++) {
+                double correction = delta[c] / blockWeight;
+                double hi = blockMean[c] + correction;
+                blockMeanLow[c] = twoSumError(blockMean[c], correction, hi);
+                blockMean[c] = hi;
+            }
+            for (int start = 0; start < n; start += panelRows) {
+                job.start = start;
+                job.k = Math.min(panelRows, n - start);
+                runPasses(split, BlockJob.CENTER);
+                updatePanel(job.k, start == 0);
+            }
+        } finally {
+            job.weights = null;
+        }
+    }
+
+    /** Runs one pass of {@link #job} over the block: in parts on the crew if {@code split}, else whole. */
+    private void runPasses(boolean split, int phase) {
+        job.phase = phase;
+        if (split) {
+            Crew.shared(threads).run(job, threads * PASS_PARTS_PER_THREAD);
+        } else {
+            job.pass(0, 1);
+        }
+    }
+
+    /** Columns from..to−1 of the weighted sum Σ w z (into blockMean). */
+    private void sumColumns(double[] weights, int n, int from, int to) {
         double[] m = blockMean;
         for (int r = 0; r < n; r++) {
             double w = weights[r];
             double[] z = blockRow(r);
-            for (int c = 0; c < d; c++) {
+            for (int c = from; c < to; c++) {
                 m[c] += w * z[c];
             }
         }
-        for (int c = 0; c < d; c++) {
-            blockMean[c] /= blockWeight;
-            delta[c] = 0.0;
-        }
+    }
+
+    /** Columns from..to−1 of the correction sum Σ w (z − m) (into delta). */
+    private void correctionColumns(double[] weights, int n, int from, int to) {
+        double[] m = blockMean;
         double[] sum = delta;
         for (int r = 0; r < n; r++) {
             double w = weights[r];
             double[] z = blockRow(r);
-            for (int c = 0; c < d; c++) {
+            for (int c = from; c < to; c++) {
                 sum[c] += w * (z[c] - m[c]);
             }
-        }
-        for (int c = 0; c < d; c++) {
-            double correction = delta[c] / blockWeight;
-            double hi = blockMean[c] + correction;
-            blockMeanLow[c] = twoSumError(blockMean[c], correction, hi);
-            blockMean[c] = hi;
-        }
-        for (int start = 0; start < n; start += panelRows) {
-            int k = Math.min(panelRows, n - start);
-            centerPanel(weights, start, k);
-            updatePanel(k, start == 0);
         }
     }
 
@@ -673,13 +706,20 @@ public final class Moments {
     }
 
     /**
-     * Part p of a parallel block step: rows rowBounds[p]..rowBounds[p + 1] − 1 of C, either of the panel
-     * update or of the merge. Each entry is computed the same way whatever part it falls in.
+     * One step of a block, whole or in parts: the two mean passes by ranges of columns, the centering by
+     * ranges of panel rows, the panel update and the merge by ranges of rows of C ({@code rowBounds}). Each
+     * value is computed the same way whatever part it falls in, so the split never changes a bit.
      */
     private final class BlockJob implements Crew.Job {
-        static final int UPDATE = 0;
-        static final int MERGE = 1;
+        static final int MEAN = 0;
+        static final int CORRECTION = 1;
+        static final int CENTER = 2;
+        static final int UPDATE = 3;
+        static final int MERGE = 4;
         int phase;
+        double[] weights;
+        int n;
+        int start;
         int k;
         boolean clear;
         double stateFactor;
@@ -689,21 +729,36 @@ public final class Moments {
 
         @Override
         public void runPart(int part, int slot) {
-            int from = rowBounds[part];
-            int to = rowBounds[part + 1];
             if (phase == UPDATE) {
-                updateRows(k, clear, from, to);
+                updateRows(k, clear, rowBounds[part], rowBounds[part + 1]);
+            } else if (phase == MERGE) {
+                mergeRowRange(stateFactor, weightProduct, flat, rows, rowBounds[part], rowBounds[part + 1], slot);
             } else {
-                mergeRowRange(stateFactor, weightProduct, flat, rows, from, to, slot);
+                pass(part, threads * PASS_PARTS_PER_THREAD);
+            }
+        }
+
+        /** Part {@code part} of {@code parts} equal ranges of a mean or centering pass. */
+        void pass(int part, int parts) {
+            if (phase == CENTER) {
+                centerPanel(weights, start, k * part / parts, k * (part + 1) / parts);
+                return;
+            }
+            int from = (int) ((long) d * part / parts);
+            int to = (int) ((long) d * (part + 1) / parts);
+            if (phase == MEAN) {
+                sumColumns(weights, n, from, to);
+            } else {
+                correctionColumns(weights, n, from, to);
             }
         }
     }
 
-    /** Writes √w_r ((z_rc − μ_hi,c) − μ_lo,c) for block rows start..start+k−1 into panel rows 0..k−1. */
-    private void centerPanel(double[] weights, int start, int k) {
+    /** Writes √w_r ((z_rc − μ_hi,c) − μ_lo,c) for block rows start+from..start+to−1 into panel rows from..to−1. */
+    private void centerPanel(double[] weights, int start, int from, int to) {
         double[] m = blockMean;
         double[] lo = blockMeanLow;
-        for (int r = 0; r < k; r++) {
+        for (int r = from; r < to; r++) {
             double s = Math.sqrt(weights[start + r]);
             double[] z = blockRow(start + r);
             double[] x = panel[r];

@@ -44,25 +44,30 @@ class ThreadCountTest {
     }
 
     @Test
-    void momentStream_wideRowsWithForgetting_sameFingerprintOnEveryThreadCount() {
+    void momentStream_wideRows_sameFingerprintOnEveryThreadCountAndEqualTwoPass() {
         Random rnd = new Random(SEED + 1);
         int d = 101;
         RandomRows data = RandomRows.of(rnd, 900, d);
-        String first = null;
-        for (int threads : THREADS) {
-            MomentStream s = new MomentStream(d, 256, 2_000.0);
-            s.setThreads(threads);
-            assertEquals(threads, s.threads());
-            for (int r = 0; r < data.size(); r++) {
-                s.add(data.rows[r], data.weights[r], data.times[r]);
+        for (double halfLife : new double[] {Double.POSITIVE_INFINITY, 2_000.0}) {
+            String first = null;
+            for (int threads : THREADS) {
+                MomentStream s = new MomentStream(d, 256, halfLife);
+                s.setThreads(threads);
+                assertEquals(threads, s.threads());
+                for (int r = 0; r < data.size(); r++) {
+                    s.add(data.rows[r], data.weights[r], data.times[r]);
+                }
+                if (halfLife == Double.POSITIVE_INFINITY) {
+                    data.twoPass().assertMatches(s.snapshot());
+                }
+                String f = s.fingerprint();
+                if (first == null) {
+                    first = f;
+                } else {
+                    assertEquals(first, f, "halfLife=" + halfLife + " threads=" + threads);
+                }
+                assertEquals(threads, s.copy().threads());
             }
-            String f = s.fingerprint();
-            if (first == null) {
-                first = f;
-            } else {
-                assertEquals(first, f, "threads=" + threads);
-            }
-            assertEquals(threads, s.copy().threads());
         }
     }
 
