@@ -822,13 +822,9 @@ public final class Moments {
         }
         requireFiniteUpdate(newWeight, newSquares, stateFactor, ratio, k, "merge");
         moveMean(ratio);
-        if (mergeRows == null) {
-            mergeRows = new double[2 * threads][];
-            for (int r = 0; r < mergeRows.length; r++) {
-                mergeRows[r] = new double[d];
-            }
-        }
-        if (threads == 1 || d <= SERIAL_MAX_WIDTH || (long) d * (d + 1) / 2 < SERIAL_MAX_MERGE) {
+        boolean split = threads > 1 && d > SERIAL_MAX_WIDTH && (long) d * (d + 1) / 2 >= SERIAL_MAX_MERGE;
+        ensureMergeRows(split ? threads : 1);
+        if (!split) {
             mergeRowRange(stateFactor, k, cb, cbRows, 0, d, 0);
         } else {
             job.phase = BlockJob.MERGE;
@@ -845,6 +841,18 @@ public final class Moments {
         }
         totalWeight = newWeight;
         sumSquaredWeights = newSquares;
+    }
+
+    /** Allocates the merge workspace rows of thread slots 0..slots−1 (on the calling thread, before a split). */
+    private void ensureMergeRows(int slots) {
+        if (mergeRows == null) {
+            mergeRows = new double[2 * threads][];
+        }
+        for (int r = 0; r < 2 * slots; r++) {
+            if (mergeRows[r] == null) {
+                mergeRows[r] = new double[d];
+            }
+        }
     }
 
     /**

@@ -4,6 +4,8 @@ import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 
+import java.util.ArrayList;
+import java.util.List;
 import java.util.Random;
 import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
@@ -86,17 +88,16 @@ class ThreadCountTest {
         byte[] expected = serial.toBytes();
         ExecutorService callers = Executors.newFixedThreadPool(2);
         try {
-            @SuppressWarnings("unchecked")
-            Future<byte[]>[] results = new Future[4];
-            for (int c = 0; c < results.length; c++) {
-                results[c] = callers.submit(() -> {
+            List<Future<byte[]>> results = new ArrayList<>();
+            for (int c = 0; c < 4; c++) {
+                results.add(callers.submit(() -> {
                     Moments m = new Moments(d);
                     m.setThreads(2);
                     for (int rep = 0; rep < 6; rep++) {
                         m.addBlock(rows, data.weights, data.times, n);
                     }
                     return m.toBytes();
-                });
+                }));
             }
             for (Future<byte[]> f : results) {
                 assertArrayEquals(expected, f.get());
