@@ -612,19 +612,9 @@ public final class Moments {
         boolean split = threads > 1 && d > SERIAL_MAX_WIDTH && blockRows != null && (long) n * d >= SERIAL_MAX_PASS;
         job.weights = weights;
         job.n = n;
+        job.blockWeight = blockWeight;
         try {
             runPasses(split, BlockJob.MEAN);
-            for (int c = 0; c < d; c++) {
-                blockMean[c] /= blockWeight;
-                delta[c] = 0.0;
-            }
-            runPasses(split, BlockJob.CORRECTION);
-            for (int c = 0; c < d; c++) {
-                double correction = delta[c] / blockWeight;
-                double hi = blockMean[c] + correction;
-                blockMeanLow[c] = twoSumError(blockMean[c], correction, hi);
-                blockMean[c] = hi;
-            }
             for (int start = 0; start < n; start += panelRows) {
                 job.start = start;
                 job.k = Math.min(panelRows, n - start);
@@ -646,9 +636,13 @@ public final class Moments {
         }
     }
 
-    /** Columns from..to−1 of the weighted sum Σ w z (into blockMean). */
-    private void sumColumns(double[] weights, int n, int from, int to) {
+    /**
+     * Columns from..to−1 of the corrected two-pass mean: m = Σ w z / W, then m + Σ w (z − m) / W as the TwoSum
+     * pair blockMean + blockMeanLow (delta holds the correction sums). Each column depends on itself alone.
+     */
+    private void meanColumns(double[] weights, int n, double blockWeight, int from, int to) {
         double[] m = blockMean;
+        double[] sum = delta;
         for (int r = 0; r < n; r++) {
             double w = weights[r];
             double[] z = blockRow(r);
@@ -656,18 +650,22 @@ public final class Moments {
                 m[c] += w * z[c];
             }
         }
-    }
-
-    /** Columns from..to−1 of the correction sum Σ w (z − m) (into delta). */
-    private void correctionColumns(double[] weights, int n, int from, int to) {
-        double[] m = blockMean;
-        double[] sum = delta;
+        for (int c = from; c < to; c++) {
+            m[c] /= blockWeight;
+            sum[c] = 0.0;
+        }
         for (int r = 0; r < n; r++) {
             double w = weights[r];
             double[] z = blockRow(r);
             for (int c = from; c < to; c++) {
                 sum[c] += w * (z[c] - m[c]);
             }
+        }
+        for (int c = from; c < to; c++) {
+            double correction = sum[c] / blockWeight;
+            double hi = m[c] + correction;
+            blockMeanLow[c] = twoSumError(m[c], correction, hi);
+            m[c] = hi;
         }
     }
 
@@ -706,19 +704,19 @@ public final class Moments {
     }
 
     /**
-     * One step of a block, whole or in parts: the two mean passes by ranges of columns, the centering by
+     * One step of a block, whole or in parts: the mean (both passes) by ranges of columns, the centering by
      * ranges of panel rows, the panel update and the merge by ranges of rows of C ({@code rowBounds}). Each
      * value is computed the same way whatever part it falls in, so the split never changes a bit.
      */
     private final class BlockJob implements Crew.Job {
         static final int MEAN = 0;
-        static final int CORRECTION = 1;
-        static final int CENTER = 2;
-        static final int UPDATE = 3;
-        static final int MERGE = 4;
+        static final int CENTER = 1;
+        static final int UPDATE = 2;
+        static final int MERGE = 3;
         int phase;
         double[] weights;
         int n;
+        double blockWeight;
         int start;
         int k;
         boolean clear;
@@ -745,16 +743,11 @@ public final class Moments {
                 return;
             }
             int from = (int) ((long) d * part / parts);
-            int to = (int) ((long) d * (part + 1) / parts);
-            if (phase == MEAN) {
-                sumColumns(weights, n, from, to);
-            } else {
-                correctionColumns(weights, n, from, to);
-            }
+            meanColumns(weights, n, blockWeight, from, (int) ((long) d * (part + 1) / parts));
         }
     }
 
-    /** Writes √w_r ((z_rc − μ_hi,c) − μ_lo,c) for block rows start+from..start+to−1 into panel rows from..to−1. */
+    /** Writes √w_r ((z_rc − μ_hi,c) − μ_lo,c) for block rows start + r into panel rows r = from..to−1. */
     private void centerPanel(double[] weights, int start, int from, int to) {
         double[] m = blockMean;
         double[] lo = blockMeanLow;
@@ -856,10 +849,10 @@ public final class Moments {
     }
 
     /**
-     * C_ij ← f·C_ij + B_ij + k·δ_i·δ_j for rows i in from..to−1, j &gt;= i (δ in {@code delta}; B row-major in
-     * {@code cb} or as rows {@code cbRows}). Each row goes through the workspace rows of {@code slot}, so that
-     * the loop indexes every array alike and compiles to SIMD instructions; the arithmetic per entry is the
-     * formula as written. Rows of B may alias rows of C: each row is read in full before it is written.
+     * C_ij ← f·C_ij + B_ij + k·δ_i·δ_j for rows i in from..to−1, j &gt;= i (δ in {@code delta}; B row-major
+     * in {@code cb} or as rows {@code cbRows}). Each row goes through the workspace rows of {@code slot}, so
+     * that the loop indexes every array alike and compiles to SIMD instructions; the arithmetic per entry is
+     * the formula as written. Rows of B may alias rows of C: each row is read in full before it is written.
      */
     private void mergeRowRange(double f, double k, double[] cb, double[][] cbRows, int from, int to, int slot) {
         double[] c = mergeRows[2 * slot];

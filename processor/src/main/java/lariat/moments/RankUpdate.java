@@ -57,7 +57,7 @@ final class RankUpdate {
         }
     }
 
-    /** Adds Xᵀ X to all rows of {@code c}: {@link #addUpper(double[][], int, int, double[][], int, int)} over 0..d. */
+    /** Adds Xᵀ X to all rows of {@code c}: the ranged {@code addUpper} over rows 0..d−1. */
     static void addUpper(double[][] panel, int k, int d, double[][] c) {
         addUpper(panel, k, d, c, 0, d);
     }

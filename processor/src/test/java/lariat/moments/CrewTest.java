@@ -28,7 +28,8 @@ class CrewTest {
             }, parts);
             for (int p = 0; p < parts; p++) {
                 assertEquals(1, runs.get(p), "job " + job + " part " + p);
-                assertTrue(slots.get(p) >= 0 && slots.get(p) < 3, "job " + job + " part " + p + " slot " + slots.get(p));
+                int slot = slots.get(p);
+                assertTrue(slot >= 0 && slot < 3, "job " + job + " part " + p + " slot " + slot);
             }
         }
     }

@@ -106,7 +106,8 @@ class RankUpdateTest {
                 long total = work(d, 0, d);
                 for (int p = 0; p < parts; p++) {
                     assertTrue(bounds[p] <= bounds[p + 1], "d=" + d + " parts=" + parts);
-                    assertTrue(bounds[p] % 2 == 0 || bounds[p] == d, "d=" + d + " parts=" + parts + " bound " + bounds[p]);
+                    assertTrue(bounds[p] % 2 == 0 || bounds[p] == d,
+                            "d=" + d + " parts=" + parts + " bound " + bounds[p]);
                     // A part exceeds its share by at most one pair of rows (2 d entries).
                     assertTrue(work(d, bounds[p], bounds[p + 1]) <= total / parts + 2L * d,
                             "d=" + d + " parts=" + parts + " part " + p);
