@@ -123,12 +123,25 @@ public final class Moments {
         this.comoment = new double[width * width];
         this.panelRows = Math.max(MIN_PANEL_ROWS, Math.min(PANEL_ROWS, PANEL_VALUES / width));
         this.delta = new double[width];
-        this.threads = defaultThreads();
+        this.threads = threadsOrProcessors();
+    }
+
+    /**
+     * {@link #defaultThreads()}, or the available processors if the property is malformed: the thread count
+     * never changes a result, and a construction (also inside {@link #fromBytes}) must not fail over it.
+     */
+    private static int threadsOrProcessors() {
+        try {
+            return defaultThreads();
+        } catch (IllegalArgumentException e) {
+            return Math.min(Crew.MAX_THREADS, Runtime.getRuntime().availableProcessors());
+        }
     }
 
     /**
      * The default thread count of new moments: the system property {@value #THREADS_PROPERTY} if set, else
-     * the available processors (at most {@link Crew#MAX_THREADS}).
+     * the available processors (at most {@link Crew#MAX_THREADS}). New moments ignore a malformed property
+     * (they use the available processors); this method reports it.
      *
      * @throws IllegalArgumentException if the property is set to anything but an integer in [1, 64]
      */
