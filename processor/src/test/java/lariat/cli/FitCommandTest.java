@@ -193,6 +193,77 @@ class FitCommandTest {
         assertTrue(se.get("cv").get("oneSeIndex").asInt() <= se.get("cv").get("minIndex").asInt());
     }
 
+    /**
+     * {@code --ridge-rescale}: the chosen coefficients are (1 + L2) times the naive elastic-net ones (Zou &amp;
+     * Hastie, J. R. Statist. Soc. B 67(2), 2005, section 3.2, from memory), the JSON says so, and the RSS
+     * is the weighted squared error summed directly on the table's rows.
+     */
+    @Test
+    void fit_ridgeRescale_reportsOnePlusRidgeTimesNaiveWithDirectRss() throws IOException {
+        double[][] data = rows(5, 200);
+        Path in = csv("t.csv", data);
+        Path j0 = dir.resolve("naive.json");
+        Path j1 = dir.resolve("rescaled.json");
+        String[] common = {"fit", "--input", in.toString(), "--target", "y", "--ridge", "0.5", "--select",
+            "relative-penalty", "--select-value", "0.1", "--refit"};
+        assertEquals(0, run(concat(common, "--json", j0.toString())).code());
+        Run r = run(concat(common, "--ridge-rescale", "--json", j1.toString()));
+        assertEquals(0, r.code(), r.err());
+        assertTrue(r.out().contains("coefficients rescaled by 1.5 = 1 + ridge"), r.out());
+        ObjectMapper m = new ObjectMapper();
+        JsonNode root0 = m.readTree(j0.toFile());
+        JsonNode root1 = m.readTree(j1.toFile());
+        assertEquals(false, root0.get("ridgeRescale").asBoolean());
+        assertEquals(true, root1.get("ridgeRescale").asBoolean());
+        JsonNode s0 = root0.get("selected");
+        JsonNode s1 = root1.get("selected");
+        assertEquals(1.0, s0.get("coefficientScale").asDouble(), 0.0);
+        assertEquals(1.5, s1.get("coefficientScale").asDouble(), 0.0);
+        assertEquals(strings(s0.get("active")), strings(s1.get("active")));
+        assertTrue(s0.get("active").size() >= 2);
+        for (String f : strings(s0.get("active"))) {
+            assertEquals(1.5 * s0.get("standardized").get(f).asDouble(), s1.get("standardized").get(f).asDouble(), 0.0);
+            assertEquals(1.5, s1.get("coefficients").get(f).asDouble() / s0.get("coefficients").get(f).asDouble(),
+                    1e-14, f);
+            assertEquals(s0.get("refit").get("coefficients").get(f).asDouble(),
+                    s1.get("refit").get("coefficients").get(f).asDouble(), 0.0, f);
+        }
+        double a = s1.get("intercept").asDouble();
+        double rss = 0;
+        for (double[] row : data) {
+            double e = row[4] - a;
+            for (int j = 0; j < 4; j++) {
+                JsonNode c = s1.get("coefficients").get(NAMES[j]);
+                e -= c == null ? 0 : c.asDouble() * row[j];
+            }
+            rss += e * e;
+        }
+        assertEquals(rss, s1.get("rss").asDouble(), 1e-9 * rss);
+        assertTrue(Math.abs(rss - s0.get("rss").asDouble()) > 1e-6 * rss, "the naive model has another RSS");
+    }
+
+    @Test
+    void fit_ridgeRescaleWithoutRidge_changesNothing() throws IOException {
+        Path in = csv("t.csv", rows(6, 150));
+        Path j0 = dir.resolve("plain.json");
+        Path j1 = dir.resolve("flag.json");
+        assertEquals(0, run("fit", "--input", in.toString(), "--target", "y", "--json", j0.toString()).code());
+        assertEquals(0, run("fit", "--input", in.toString(), "--target", "y", "--ridge-rescale", "--json",
+                j1.toString()).code());
+        ObjectMapper m = new ObjectMapper();
+        JsonNode root0 = m.readTree(j0.toFile());
+        JsonNode root1 = m.readTree(j1.toFile());
+        assertEquals(root0.get("selected"), root1.get("selected"));
+        assertEquals(root0.get("knots"), root1.get("knots"));
+        assertEquals(1.0, root1.get("selected").get("coefficientScale").asDouble(), 0.0);
+    }
+
+    private static String[] concat(String[] head, String... tail) {
+        String[] out = java.util.Arrays.copyOf(head, head.length + tail.length);
+        System.arraycopy(tail, 0, out, head.length, tail.length);
+        return out;
+    }
+
     private void assertBadInput(Run r, String... fragments) {
         assertEquals(2, r.code(), r.err());
         String err = r.err().strip();
