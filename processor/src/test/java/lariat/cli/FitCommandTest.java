@@ -137,15 +137,8 @@ class FitCommandTest {
     @Test
     void fit_avroContainer_equalsCsvInput() throws IOException {
         double[][] rows = rows(2, 150);
-        Path jc = dir.resolve("c.json");
-        Path ja = dir.resolve("a.json");
-        assertEquals(0, run("fit", "--input", csv("t.csv", rows).toString(), "--target", "y", "--json",
-                jc.toString()).code());
-        assertEquals(0, run("fit", "--input", avro("t.avro", rows).toString(), "--target", "y", "--json",
-                ja.toString()).code());
-        ObjectMapper m = new ObjectMapper();
-        JsonNode c = m.readTree(jc.toFile());
-        JsonNode a = m.readTree(ja.toFile());
+        JsonNode c = fitJson("c.json", "fit", "--input", csv("t.csv", rows).toString(), "--target", "y");
+        JsonNode a = fitJson("a.json", "fit", "--input", avro("t.avro", rows).toString(), "--target", "y");
         assertEquals(c.get("knots"), a.get("knots"));
         assertEquals(c.get("selected"), a.get("selected"));
         assertEquals(c.get("columns"), a.get("columns"));
@@ -179,15 +172,9 @@ class FitCommandTest {
     @Test
     void fit_cvOneSe_isNoLargerThanCvMinimum() throws IOException {
         Path in = csv("t.csv", rows(4, 300));
-        Path j1 = dir.resolve("min.json");
-        Path j2 = dir.resolve("se.json");
-        assertEquals(0, run("fit", "--input", in.toString(), "--target", "y", "--select", "cv", "--folds", "10",
-                "--json", j1.toString()).code());
-        assertEquals(0, run("fit", "--input", in.toString(), "--target", "y", "--select", "cv", "--folds", "10",
-                "--one-se", "--json", j2.toString()).code());
-        ObjectMapper m = new ObjectMapper();
-        JsonNode min = m.readTree(j1.toFile()).get("selected");
-        JsonNode se = m.readTree(j2.toFile()).get("selected");
+        String[] cv = {"fit", "--input", in.toString(), "--target", "y", "--select", "cv", "--folds", "10"};
+        JsonNode min = fitJson("min.json", cv).get("selected");
+        JsonNode se = fitJson("se.json", concat(cv, "--one-se")).get("selected");
         assertEquals(10, min.get("cv").get("folds").asInt());
         assertTrue(se.get("relativePenalty").asDouble() >= min.get("relativePenalty").asDouble());
         assertTrue(se.get("cv").get("oneSeIndex").asInt() <= se.get("cv").get("minIndex").asInt());
@@ -202,17 +189,12 @@ class FitCommandTest {
     void fit_ridgeRescale_reportsOnePlusRidgeTimesNaiveWithDirectRss() throws IOException {
         double[][] data = rows(5, 200);
         Path in = csv("t.csv", data);
-        Path j0 = dir.resolve("naive.json");
-        Path j1 = dir.resolve("rescaled.json");
         String[] common = {"fit", "--input", in.toString(), "--target", "y", "--ridge", "0.5", "--select",
             "relative-penalty", "--select-value", "0.1", "--refit"};
-        assertEquals(0, run(concat(common, "--json", j0.toString())).code());
-        Run r = run(concat(common, "--ridge-rescale", "--json", j1.toString()));
-        assertEquals(0, r.code(), r.err());
+        JsonNode root0 = fitJson("naive.json", common);
+        JsonNode root1 = fitJson("rescaled.json", concat(common, "--ridge-rescale"));
+        Run r = run(concat(common, "--ridge-rescale"));
         assertTrue(r.out().contains("coefficients rescaled by 1.5 = 1 + ridge"), r.out());
-        ObjectMapper m = new ObjectMapper();
-        JsonNode root0 = m.readTree(j0.toFile());
-        JsonNode root1 = m.readTree(j1.toFile());
         assertEquals(false, root0.get("ridgeRescale").asBoolean());
         assertEquals(true, root1.get("ridgeRescale").asBoolean());
         JsonNode s0 = root0.get("selected");
@@ -245,17 +227,19 @@ class FitCommandTest {
     @Test
     void fit_ridgeRescaleWithoutRidge_changesNothing() throws IOException {
         Path in = csv("t.csv", rows(6, 150));
-        Path j0 = dir.resolve("plain.json");
-        Path j1 = dir.resolve("flag.json");
-        assertEquals(0, run("fit", "--input", in.toString(), "--target", "y", "--json", j0.toString()).code());
-        assertEquals(0, run("fit", "--input", in.toString(), "--target", "y", "--ridge-rescale", "--json",
-                j1.toString()).code());
-        ObjectMapper m = new ObjectMapper();
-        JsonNode root0 = m.readTree(j0.toFile());
-        JsonNode root1 = m.readTree(j1.toFile());
+        JsonNode root0 = fitJson("plain.json", "fit", "--input", in.toString(), "--target", "y");
+        JsonNode root1 = fitJson("flag.json", "fit", "--input", in.toString(), "--target", "y", "--ridge-rescale");
         assertEquals(root0.get("selected"), root1.get("selected"));
         assertEquals(root0.get("knots"), root1.get("knots"));
         assertEquals(1.0, root1.get("selected").get("coefficientScale").asDouble(), 0.0);
+    }
+
+    /** Runs {@code fit args --json dir/name}, requires exit code 0 and returns the JSON written. */
+    private JsonNode fitJson(String name, String... args) throws IOException {
+        Path json = dir.resolve(name);
+        Run r = run(concat(args, "--json", json.toString()));
+        assertEquals(0, r.code(), r.err());
+        return new ObjectMapper().readTree(json.toFile());
     }
 
     private static String[] concat(String[] head, String... tail) {
