@@ -3,12 +3,17 @@ package lariat.audit;
 import lariat.codec.SchemaTrust;
 import lariat.schema.ModelVersion;
 import org.apache.avro.AvroRuntimeException;
+import org.apache.avro.Schema;
+import org.apache.avro.message.BinaryMessageDecoder;
+import org.apache.avro.message.SchemaStore;
 import org.apache.kafka.clients.consumer.Consumer;
 import org.apache.kafka.clients.consumer.ConsumerRecord;
 import org.apache.kafka.common.PartitionInfo;
 import org.apache.kafka.common.TopicPartition;
 
 import java.io.IOException;
+import java.io.InputStream;
+import java.io.UncheckedIOException;
 import java.nio.BufferUnderflowException;
 import java.nio.ByteBuffer;
 import java.time.Duration;
@@ -22,9 +27,19 @@ import java.util.function.Predicate;
  * Reads every committed model version from a model topic: assigns all its partitions to a
  * read_committed consumer, reads each from its beginning to the end offset it had when reading
  * started, and decodes the values as {@link ModelVersion} (Avro single-object encoding). Values
- * that do not decode are counted, not returned.
+ * written with an earlier ModelVersion schema (kept as resources under {@value #HISTORY}) are
+ * resolved to the current one, fields added since taking their defaults. Values that do not
+ * decode are counted, not returned.
  */
 public final class ModelTopicReader {
+
+    /** Resource folder of the earlier ModelVersion writer schemas. */
+    static final String HISTORY = "/lariat/schema/history/";
+
+    /** Earlier ModelVersion schemas, oldest first. */
+    private static final List<String> EARLIER = List.of("ModelVersion-1.avsc");
+
+    private static final BinaryMessageDecoder<ModelVersion> DECODER = decoder();
 
     /** What was read: the versions (model-topic order within a partition) and the undecodable count. */
     public static final class Result {
@@ -116,10 +131,25 @@ public final class ModelTopicReader {
         }
         SchemaTrust.ensure();
         try {
-            return ModelVersion.fromByteBuffer(ByteBuffer.wrap(value));
+            return DECODER.decode(ByteBuffer.wrap(value));
         } catch (IOException | AvroRuntimeException | IndexOutOfBoundsException | NegativeArraySizeException
                  | BufferUnderflowException e) {
             return null;
         }
+    }
+
+    private static BinaryMessageDecoder<ModelVersion> decoder() {
+        SchemaStore.Cache earlier = new SchemaStore.Cache();
+        for (String name : EARLIER) {
+            try (InputStream in = ModelTopicReader.class.getResourceAsStream(HISTORY + name)) {
+                if (in == null) {
+                    throw new IllegalStateException("missing resource " + HISTORY + name);
+                }
+                earlier.addSchema(new Schema.Parser().parse(in));
+            } catch (IOException e) {
+                throw new UncheckedIOException(e);
+            }
+        }
+        return ModelVersion.createDecoder(earlier);
     }
 }

@@ -21,6 +21,7 @@ import lariat.select.CvCurve;
 import lariat.select.FoldMoments;
 import lariat.select.ModelSelector;
 import lariat.select.RegressionMoments;
+import lariat.select.RidgeRescale;
 import lariat.select.SelectedModel;
 import lariat.select.SelectionRule;
 import lariat.select.SelectionSpec;
@@ -79,6 +80,10 @@ public final class FitCommand implements Callable<Integer> {
             description = "Ridge penalty lambda2 >= 0 on the standardized scale (elastic net; default: 0).")
     double ridge;
 
+    @Option(names = "--ridge-rescale", description = "With --ridge > 0: report the elastic-net estimate, the chosen "
+            + "coefficients multiplied by (1 + L2) (Zou & Hastie 2005), instead of the naive one.")
+    boolean ridgeRescale;
+
     @Option(names = "--max-active", paramLabel = "N", description = "Stop the path at N active features.")
     Integer maxActive;
 
@@ -126,7 +131,7 @@ public final class FitCommand implements Callable<Integer> {
 
     /** What was read, for the reports. */
     record Input(String file, String target, String weight, int rows, List<String> features, String method,
-                 boolean positive, double ridge) {
+                 boolean positive, double ridge, boolean ridgeRescale) {
     }
 
     @Override
@@ -176,14 +181,15 @@ public final class FitCommand implements Callable<Integer> {
         try {
             CvCurve cv = foldMoments == null ? null
                     : CrossValidation.run(path, foldMoments, featureCols, p, foldOptions(path));
-            chosen = ModelSelector.select(path, full, selection, cv);
+            SelectedModel naive = ModelSelector.select(path, full, selection, cv);
+            chosen = ridgeRescale ? RidgeRescale.apply(naive, full, ridge) : naive;
         } catch (IllegalArgumentException e) {
             err.println("lariat fit: " + table.source() + ": " + e.getMessage());
             err.flush();
             return BAD_INPUT;
         }
         Input in = new Input(table.source(), target, weight, table.rows(), names, method.toLowerCase(Locale.ROOT),
-                positive, ridge);
+                positive, ridge, ridgeRescale);
         PathReport report = PathReport.of(names, path);
         out.print(summary(in, path, report, chosen));
         out.flush();

@@ -17,7 +17,8 @@ import lariat.select.SelectedModel;
 /**
  * The JSON document written by {@code fit --json}: the input description, {@code columns} (feature names),
  * {@code excluded}, {@code knots} (step, penalty, relativePenalty, active, entered, left, coefficients by
- * name in raw units, standardized, intercept, rss, r2, df) and {@code selected}.
+ * name in raw units, standardized, intercept, rss, r2, df) and {@code selected} (the same for the chosen
+ * model, with {@code coefficientScale}: 1 + ridge when {@code ridgeRescale} applied, otherwise 1).
  */
 final class FitJson {
 
@@ -40,6 +41,7 @@ final class FitJson {
         root.put("method", in.method());
         root.put("positive", in.positive());
         root.put("ridge", in.ridge());
+        root.put("ridgeRescale", in.ridgeRescale());
         root.put("lambdaMax", path.lambdaMax());
         root.put("stopReason", path.stopReason().toString());
         List<String> names = in.features();
@@ -109,6 +111,7 @@ final class FitJson {
         n.put("rss", s.rss());
         n.put("r2", s.r2());
         n.put("df", s.df());
+        n.put("coefficientScale", s.coefficientScale());
         Criteria c = s.criteria();
         if (c == null) {
             n.putNull("criteria");

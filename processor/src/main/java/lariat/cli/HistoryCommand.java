@@ -13,13 +13,13 @@ import lariat.audit.VersionDiff;
 import org.apache.kafka.clients.consumer.Consumer;
 import org.apache.kafka.common.KafkaException;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
 
 import java.io.IOException;
 import java.io.PrintWriter;
-import java.nio.file.Path;
 import java.time.Duration;
 import java.util.List;
 import java.util.Map;
@@ -50,12 +50,8 @@ public final class HistoryCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
 
-    @Option(names = "--bootstrap-servers", paramLabel = "HOSTS", description = "Kafka bootstrap servers.")
-    String bootstrapServers;
-
-    @Option(names = "--client-config", paramLabel = "FILE",
-            description = "Kafka client properties (TLS, SASL, ...); --bootstrap-servers overrides its bootstrap.servers.")
-    Path clientConfig;
+    @Mixin
+    ReplayClusterOptions cluster;
 
     @Option(names = "--model-topic", paramLabel = "TOPIC", defaultValue = "lariat.models",
             description = "Model topic (default: ${DEFAULT-VALUE}).")
@@ -91,8 +87,7 @@ public final class HistoryCommand implements Callable<Integer> {
         PrintWriter err = spec.commandLine().getErr();
         List<PublishedVersion> versions;
         try {
-            ClusterClients clients = ClusterClients.of(ClusterClients.properties(Map.of(), clientConfig,
-                    bootstrapServers), "lariat-history");
+            ClusterClients clients = ClusterClients.of(cluster.clientProperties(Map.of()), "lariat-history");
             try (Consumer<byte[], byte[]> c = clients.consumer()) {
                 versions = new ModelTopicReader(c, Duration.ofMillis(timeoutMs))
                         .read(modelTopic, k -> key == null || key.equals(k)).versions();

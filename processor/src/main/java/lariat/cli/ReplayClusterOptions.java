@@ -8,17 +8,18 @@ import lariat.audit.ClusterClients;
 import picocli.CommandLine.Option;
 
 /**
- * The cluster options of the commands that replay a stage configuration's history ({@code audit},
- * {@code recompute}): the configuration names the cluster; these options override it.
+ * The cluster options of the commands that read a stage's history from the cluster ({@code history},
+ * {@code audit}, {@code recompute}): where a command reads a stage configuration, that names the
+ * cluster and these options override it; {@code --bootstrap-servers} overrides the client file's.
  */
 final class ReplayClusterOptions {
 
     @Option(names = "--bootstrap-servers", paramLabel = "HOSTS",
-            description = "Kafka bootstrap servers (default: the configuration's).")
+            description = "Kafka bootstrap servers (default: the client file's, else the configuration's).")
     String bootstrapServers;
 
     @Option(names = "--client-config", paramLabel = "FILE",
-            description = "Kafka client properties (TLS, SASL, ...), over the configuration's.")
+            description = "Kafka client properties (TLS, SASL, ...), over the configuration's where there is one.")
     Path clientConfig;
 
     /** The configuration's client properties with these options applied over them. */

@@ -99,7 +99,9 @@ public final class StageConfig {
     public static final ConfigKey<Double> PATH_RIDGE = doubleRange("path.ridge", "0", 0, false, Double.MAX_VALUE,
             false, "Ridge penalty added to the standardized Gram diagonal (elastic net); 0 = plain lasso.", true);
     public static final ConfigKey<Boolean> PATH_RIDGE_RESCALE = bool("path.ridge.rescale", "false",
-            "Publish elastic-net coefficients scaled by (1 + path.ridge).", true);
+            "Publish the elastic-net estimate: the chosen model's coefficients times (1 + path.ridge), with intercept, "
+                    + "RSS, R2 and criteria recomputed (coefficientScale in the record); false = the naive estimate.",
+            true);
     public static final ConfigKey<Integer> PATH_MAX_ACTIVE = intRange("path.max.active", "0", 0, Integer.MAX_VALUE,
             "Stop the path when this many features are active; 0 = no limit.", true);
     public static final ConfigKey<Integer> PATH_MAX_STEPS = intRange("path.max.steps", "0", 0, Integer.MAX_VALUE,

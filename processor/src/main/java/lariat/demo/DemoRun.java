@@ -199,6 +199,7 @@ public final class DemoRun {
         try (Admin admin = Admin.create(p)) {
             admin.createTopics(List.of(new NewTopic(plan.inputTopic(), Optional.of(DemoPlan.PARTITIONS),
                     Optional.empty()))).all().get(TIMEOUT_S, TimeUnit.SECONDS);
+            TopicSetup.awaitLeaders(admin, plan.inputTopic(), DemoPlan.PARTITIONS, Duration.ofSeconds(TIMEOUT_S));
             new TopicSetup(admin, StageAssembly.settings(config)).ensure();
         } catch (ExecutionException | TimeoutException e) {
             throw new IllegalStateException("cannot create topic " + plan.inputTopic() + " at " + servers + ": " + e, e);

@@ -77,6 +77,10 @@ public final class PathReport {
         b.append(fmt("selected by %s%s: lambda/lambda_max = %.4f, %d active, R2 = %.4f, intercept = %.6g%n",
                 s.rule().label(), parameter(s),
                 s.relativePenalty(), s.df(), s.r2(), s.intercept()));
+        if (s.coefficientScale() != 1.0) {
+            b.append(fmt("coefficients rescaled by %s = 1 + ridge (elastic-net estimate; the knots above are "
+                    + "the naive path)%n", Double.toString(s.coefficientScale())));
+        }
         if (s.criteria() != null) {
             b.append(fmt("criteria: Cp = %.6g, AIC = %.6g, BIC = %.6g (n_eff = %.6g, sigma2 = %.6g)%n",
                     s.criteria().cp(), s.criteria().aic(), s.criteria().bic(), s.criteria().effectiveSize(),

@@ -5,8 +5,9 @@ package lariat.select;
  * (indices of the nonzero coefficients, ascending), raw and standardized coefficients (length p), the
  * intercept, R², RSS = Σ w (y − a − xᵀβ)², df = number of nonzeros, the information criteria when σ²
  * could be estimated, the least-squares refit on the active set when asked for and solvable, the
- * cross-validation curve when the rule was CV, and a note when the rule could not be met exactly.
- * Immutable; arrays are copied in and out. Nullable parts: criteria, refit, cv, note.
+ * cross-validation curve when the rule was CV, a note when the rule could not be met exactly, and the
+ * factor the path's coefficients were multiplied by ({@link #coefficientScale()}: 1, or 1 + λ₂ for the
+ * elastic-net rescaling of {@link RidgeRescale}). Immutable; arrays are copied in and out. Nullable parts: criteria, refit, cv, note.
  */
 public final class SelectedModel {
 
@@ -25,6 +26,7 @@ public final class SelectedModel {
     private final LeastSquaresFit refit;
     private final CvCurve cv;
     private final String note;
+    private final double coefficientScale;
 
     private SelectedModel(Builder b) {
         this.rule = b.rule;
@@ -42,6 +44,7 @@ public final class SelectedModel {
         this.refit = b.refit;
         this.cv = b.cv;
         this.note = b.note;
+        this.coefficientScale = b.coefficientScale;
     }
 
     /** Assembled by {@link ModelSelector}; validated here. */
@@ -49,6 +52,9 @@ public final class SelectedModel {
         if (b.rule == null || b.active == null || b.raw == null || b.standardized == null
                 || b.raw.length != b.standardized.length) {
             throw new IllegalArgumentException("rule, active, raw and standardized (of equal length) are required");
+        }
+        if (!(b.coefficientScale >= 1) || Double.isInfinite(b.coefficientScale)) {
+            throw new IllegalArgumentException("coefficientScale must be finite and >= 1, was " + b.coefficientScale);
         }
         if (b.refit != null && !b.refit.solved()) {
             throw new IllegalArgumentException("refit must be solved or null");
@@ -121,6 +127,35 @@ public final class SelectedModel {
         return note;
     }
 
+    /**
+     * The factor the path's coefficients at the chosen point were multiplied by: 1 for the path's own
+     * (for a ridge penalty, the naive elastic-net) coefficients, 1 + λ₂ after {@link RidgeRescale}.
+     */
+    public double coefficientScale() {
+        return coefficientScale;
+    }
+
+    /** A builder holding every part of this model; package use only. */
+    Builder toBuilder() {
+        Builder b = new Builder();
+        b.rule = rule;
+        b.parameter = parameter;
+        b.penalty = penalty;
+        b.relativePenalty = relativePenalty;
+        b.active = active.clone();
+        b.raw = raw.clone();
+        b.standardized = standardized.clone();
+        b.intercept = intercept;
+        b.r2 = r2;
+        b.rss = rss;
+        b.criteria = criteria;
+        b.refit = refit;
+        b.cv = cv;
+        b.note = note;
+        b.coefficientScale = coefficientScale;
+        return b;
+    }
+
     /** Mutable assembly of a model; package use only. */
     static final class Builder {
         SelectionRule rule;
@@ -137,5 +172,6 @@ public final class SelectedModel {
         LeastSquaresFit refit;
         CvCurve cv;
         String note;
+        double coefficientScale = 1.0;
     }
 }

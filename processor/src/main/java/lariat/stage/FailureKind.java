@@ -22,8 +22,9 @@ public enum FailureKind {
     FATAL;
 
     /**
-     * Classifies {@code e}. Fencing, authorization, authentication, an unsupported protocol and a
-     * timeout during commit (whose outcome is unknown) are fatal; any other Kafka exception is
+     * Classifies {@code e}. Fencing, authorization, authentication, an unsupported protocol, a
+     * timeout during commit (whose outcome is unknown) and a restore that timed out while
+     * partitions were being assigned ({@link RestoreTimeoutException}) are fatal; any other Kafka exception is
      * abortable. Non-Kafka exceptions are fatal, since the cause is unknown.
      *
      * @param duringCommit whether {@code e} came from {@code commitTransaction}
@@ -31,7 +32,8 @@ public enum FailureKind {
     public static FailureKind of(Throwable e, boolean duringCommit) {
         Throwable t = e;
         for (int depth = 0; t != null && depth < 8; depth++, t = t.getCause()) {
-            if (t instanceof ProducerFencedException || t instanceof InvalidProducerEpochException
+            if (t instanceof RestoreTimeoutException || t instanceof ProducerFencedException
+                    || t instanceof InvalidProducerEpochException
                     || t instanceof FencedInstanceIdException || t instanceof AuthorizationException
                     || t instanceof AuthenticationException || t instanceof UnsupportedVersionException
                     || t instanceof OutOfOrderSequenceException) {

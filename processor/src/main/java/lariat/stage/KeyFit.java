@@ -8,13 +8,15 @@ import lariat.select.CvCurve;
 import lariat.select.FoldMoments;
 import lariat.select.ModelSelector;
 import lariat.select.RegressionMoments;
+import lariat.select.RidgeRescale;
 import lariat.select.SelectedModel;
 import lariat.select.SelectionRule;
 
 /**
  * One refit of one key, a pure function of its moments and the recipe: the moments (features
  * in columns 0..p-1, target in column p), the lasso path fitted from them, the cross-validation
- * curve when the rule is CV, and the selected model. Immutable.
+ * curve when the rule is CV, and the selected model (rescaled to the elastic-net estimate when the
+ * recipe asks for it). Immutable.
  */
 public final class KeyFit {
 
@@ -58,6 +60,9 @@ public final class KeyFit {
             cv = CrossValidation.run(path, folds, features, p, recipe.pathOptions());
         }
         SelectedModel selected = ModelSelector.select(path, rm, recipe.spec(), cv);
+        if (recipe.ridgeRescale()) {
+            selected = RidgeRescale.apply(selected, rm, recipe.pathOptions().ridge());
+        }
         int cvIndex = cv == null ? -1 : recipe.spec().oneStandardError() ? cv.oneSeIndex() : cv.minIndex();
         return new KeyFit(moments.copy(), path, cv, selected, cvIndex);
     }

@@ -98,6 +98,7 @@ public final class ModelRecords {
                 .setR2(sel.r2())
                 .setRss(sel.rss())
                 .setDf(sel.df())
+                .setCoefficientScale(sel.coefficientScale())
                 .setCriteria(lariat.schema.Criteria.newBuilder()
                         .setCp(c == null ? null : c.cp())
                         .setAic(c == null ? null : c.aic())

@@ -7,33 +7,38 @@ import lariat.select.SelectionRule;
 import lariat.select.SelectionSpec;
 
 /**
- * What a refit computes: the path options and the selection spec, read once from the
- * configuration. Immutable.
+ * What a refit computes: the path options, the selection spec and whether a ridge path's chosen
+ * coefficients are rescaled to the elastic-net estimate ({@link lariat.select.RidgeRescale}), read
+ * once from the configuration. Immutable.
  */
 public final class RefitRecipe {
 
     private final PathOptions pathOptions;
     private final SelectionSpec spec;
     private final int cvFolds;
+    private final boolean ridgeRescale;
 
-    private RefitRecipe(PathOptions pathOptions, SelectionSpec spec, int cvFolds) {
+    private RefitRecipe(PathOptions pathOptions, SelectionSpec spec, int cvFolds, boolean ridgeRescale) {
         this.pathOptions = pathOptions;
         this.spec = spec;
         this.cvFolds = cvFolds;
+        this.ridgeRescale = ridgeRescale;
     }
 
     /**
-     * A recipe from explicit parts; {@code cvFolds} must be &gt;= 2 exactly when the rule is CV.
+     * A recipe from explicit parts; {@code cvFolds} must be &gt;= 2 exactly when the rule is CV;
+     * {@code ridgeRescale} asks for the (1 + λ₂) rescaling of the chosen model (a no-op when the
+     * path's ridge is 0).
      *
      * @throws IllegalArgumentException when {@code cvFolds} does not fit the rule
      */
-    public static RefitRecipe of(PathOptions pathOptions, SelectionSpec spec, int cvFolds) {
+    public static RefitRecipe of(PathOptions pathOptions, SelectionSpec spec, int cvFolds, boolean ridgeRescale) {
         boolean cv = spec.rule() == SelectionRule.CV;
         if (cv ? cvFolds < 2 : cvFolds != 0) {
             throw new IllegalArgumentException("cvFolds must be >= 2 for rule cv and 0 otherwise, was " + cvFolds
                     + " for rule " + spec.rule().label());
         }
-        return new RefitRecipe(pathOptions, spec, cvFolds);
+        return new RefitRecipe(pathOptions, spec, cvFolds, ridgeRescale);
     }
 
     /** The recipe the configuration describes. */
@@ -69,7 +74,8 @@ public final class RefitRecipe {
         }
         SelectionSpec spec = SelectionSpec.of(rule, value, c.get(StageConfig.SELECT_CV_ONE_SE),
                 c.get(StageConfig.SELECT_REFIT));
-        return of(b.build(), spec, rule == SelectionRule.CV ? c.get(StageConfig.SELECT_CV_FOLDS) : 0);
+        return of(b.build(), spec, rule == SelectionRule.CV ? c.get(StageConfig.SELECT_CV_FOLDS) : 0,
+                c.get(StageConfig.PATH_RIDGE_RESCALE));
     }
 
     public PathOptions pathOptions() {
@@ -78,6 +84,11 @@ public final class RefitRecipe {
 
     public SelectionSpec spec() {
         return spec;
+    }
+
+    /** Whether the chosen model is rescaled by 1 + λ₂ when the path has a ridge penalty λ₂ &gt; 0. */
+    public boolean ridgeRescale() {
+        return ridgeRescale;
     }
 
     /** Fold moments kept per key: 0 unless the rule is CV. */

@@ -14,6 +14,7 @@ import org.apache.kafka.common.KafkaException;
 import org.apache.kafka.common.TopicPartition;
 import org.apache.kafka.common.errors.InterruptException;
 import org.apache.kafka.common.errors.RetriableException;
+import org.apache.kafka.common.errors.TimeoutException;
 import org.apache.kafka.common.errors.WakeupException;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
@@ -58,6 +59,8 @@ public final class Stage implements AutoCloseable {
     private static final Duration IDLE_POLL = Duration.ofMillis(200);
     private static final long REOPEN_BACKOFF_MIN_MS = 500;
     private static final long REOPEN_BACKOFF_MAX_MS = 5_000;
+    /** Longest single wait for committed offsets during a restore. */
+    static final long COMMITTED_ATTEMPT_MS = 5_000;
 
     private final StageSettings s;
     private final Refitter refitter;
@@ -471,6 +474,9 @@ public final class Stage implements AutoCloseable {
      * committed offset. The committed offsets are fetched first: that fetch waits until no
      * transaction that could still commit offsets for them is open, so the snapshot read after
      * it is the one those offsets belong to.
+     *
+     * @throws RestoreTimeoutException when the committed offsets are not known within
+     *                                 {@code restore.timeout.ms}
      */
     private void restore(Collection<TopicPartition> partitions) {
         if (partitions.isEmpty()) {
@@ -479,8 +485,7 @@ public final class Stage implements AutoCloseable {
         boolean wasReady = ready;
         ready = false;
         long t0 = System.nanoTime();
-        Map<TopicPartition, OffsetAndMetadata> committed = consumer.committed(new HashSet<>(partitions),
-                Duration.ofMillis(s.restoreTimeoutMs()));
+        Map<TopicPartition, OffsetAndMetadata> committed = committedOffsets(new HashSet<>(partitions));
         for (TopicPartition tp : partitions) {
             states.drop(tp.partition());
             work.remove(tp.partition());
@@ -501,6 +506,34 @@ public final class Stage implements AutoCloseable {
         metrics.restored((System.nanoTime() - t0) / 1e9);
         metrics.keys(states.size());
         ready = wasReady;
+    }
+
+    /**
+     * The committed offsets of {@code partitions}, asked for in attempts of at most
+     * {@value #COMMITTED_ATTEMPT_MS} ms until {@code restore.timeout.ms} has passed, so that a
+     * fetch held back for long (by an open transaction that added offsets for these partitions,
+     * or by a coordinator still loading after a broker restart) is logged while it lasts and
+     * ends when the stage stops.
+     *
+     * @throws RestoreTimeoutException when the offsets are not known by the deadline, or the
+     *                                 stage is stopping
+     */
+    private Map<TopicPartition, OffsetAndMetadata> committedOffsets(Set<TopicPartition> partitions) {
+        long deadline = System.nanoTime() + TimeUnit.MILLISECONDS.toNanos(s.restoreTimeoutMs());
+        for (int attempt = 1; ; attempt++) {
+            long leftMs = TimeUnit.NANOSECONDS.toMillis(deadline - System.nanoTime());
+            try {
+                return consumer.committed(partitions, Duration.ofMillis(Math.max(1, Math.min(COMMITTED_ATTEMPT_MS,
+                        leftMs))));
+            } catch (TimeoutException e) {
+                if (stopping || System.nanoTime() - deadline >= 0) {
+                    throw new RestoreTimeoutException("committed offsets of " + partitions + " not known within "
+                            + "restore.timeout.ms = " + s.restoreTimeoutMs() + " (" + attempt + " attempts)", e);
+                }
+                LOG.info("committed offsets of {} not known yet (attempt {}: {}); asking again", partitions, attempt,
+                        e.getMessage());
+            }
+        }
     }
 
     /**
@@ -569,10 +602,20 @@ public final class Stage implements AutoCloseable {
             forget(partitions);
         }
 
+        /**
+         * Restores {@code partitions}. A restore that times out here escapes from {@code poll} as a
+         * {@link RestoreTimeoutException}, which {@link FailureKind} makes fatal: restoring again with
+         * the same clients would wait as long again, while new clients start with a new producer
+         * whose {@code initTransactions} ends any transaction this stage left open.
+         */
         @Override
         public void onPartitionsAssigned(Collection<TopicPartition> partitions) {
             assigned.addAll(partitions);
-            restore(partitions);
+            try {
+                restore(partitions);
+            } catch (TimeoutException e) {
+                throw new RestoreTimeoutException("restore of " + partitions + " timed out: " + e.getMessage(), e);
+            }
             ready = true;
         }
 

@@ -12,6 +12,7 @@ import org.apache.kafka.common.errors.UnknownTopicOrPartitionException;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
 
+import java.time.Duration;
 import java.util.ArrayList;
 import java.util.Collection;
 import java.util.List;
@@ -39,6 +40,38 @@ public final class TopicSetup {
     public TopicSetup(Admin admin, StageSettings settings) {
         this.admin = admin;
         this.s = settings;
+    }
+
+    /**
+     * Waits up to {@code timeout} until the broker describes {@code topic} with {@code partitions}
+     * partitions, each with a leader. A topic whose creation the controller has acknowledged may
+     * still be unknown to the broker's metadata for a moment: a describe then says it does not exist,
+     * and a producer sending to it gets NOT_LEADER_OR_FOLLOWER.
+     *
+     * @throws TimeoutException when {@code timeout} passes first
+     */
+    public static void awaitLeaders(Admin admin, String topic, int partitions, Duration timeout)
+            throws InterruptedException, ExecutionException, TimeoutException {
+        long deadline = System.nanoTime() + timeout.toNanos();
+        while (true) {
+            try {
+                TopicDescription d = admin.describeTopics(List.of(topic)).allTopicNames()
+                        .get(timeout.toMillis(), TimeUnit.MILLISECONDS).get(topic);
+                if (d.partitions().size() == partitions
+                        && d.partitions().stream().allMatch(p -> p.leader() != null && !p.leader().isEmpty())) {
+                    return;
+                }
+            } catch (ExecutionException e) {
+                if (!(e.getCause() instanceof UnknownTopicOrPartitionException)) {
+                    throw e;
+                }
+            }
+            if (System.nanoTime() - deadline > 0) {
+                throw new TimeoutException("topic " + topic + " not described with " + partitions
+                        + " led partitions within " + timeout);
+            }
+            Thread.sleep(50);
+        }
     }
 
     /**

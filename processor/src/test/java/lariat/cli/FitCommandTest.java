@@ -137,15 +137,8 @@ class FitCommandTest {
     @Test
     void fit_avroContainer_equalsCsvInput() throws IOException {
         double[][] rows = rows(2, 150);
-        Path jc = dir.resolve("c.json");
-        Path ja = dir.resolve("a.json");
-        assertEquals(0, run("fit", "--input", csv("t.csv", rows).toString(), "--target", "y", "--json",
-                jc.toString()).code());
-        assertEquals(0, run("fit", "--input", avro("t.avro", rows).toString(), "--target", "y", "--json",
-                ja.toString()).code());
-        ObjectMapper m = new ObjectMapper();
-        JsonNode c = m.readTree(jc.toFile());
-        JsonNode a = m.readTree(ja.toFile());
+        JsonNode c = fitJson("c.json", "fit", "--input", csv("t.csv", rows).toString(), "--target", "y");
+        JsonNode a = fitJson("a.json", "fit", "--input", avro("t.avro", rows).toString(), "--target", "y");
         assertEquals(c.get("knots"), a.get("knots"));
         assertEquals(c.get("selected"), a.get("selected"));
         assertEquals(c.get("columns"), a.get("columns"));
@@ -179,18 +172,80 @@ class FitCommandTest {
     @Test
     void fit_cvOneSe_isNoLargerThanCvMinimum() throws IOException {
         Path in = csv("t.csv", rows(4, 300));
-        Path j1 = dir.resolve("min.json");
-        Path j2 = dir.resolve("se.json");
-        assertEquals(0, run("fit", "--input", in.toString(), "--target", "y", "--select", "cv", "--folds", "10",
-                "--json", j1.toString()).code());
-        assertEquals(0, run("fit", "--input", in.toString(), "--target", "y", "--select", "cv", "--folds", "10",
-                "--one-se", "--json", j2.toString()).code());
-        ObjectMapper m = new ObjectMapper();
-        JsonNode min = m.readTree(j1.toFile()).get("selected");
-        JsonNode se = m.readTree(j2.toFile()).get("selected");
+        String[] cv = {"fit", "--input", in.toString(), "--target", "y", "--select", "cv", "--folds", "10"};
+        JsonNode min = fitJson("min.json", cv).get("selected");
+        JsonNode se = fitJson("se.json", concat(cv, "--one-se")).get("selected");
         assertEquals(10, min.get("cv").get("folds").asInt());
         assertTrue(se.get("relativePenalty").asDouble() >= min.get("relativePenalty").asDouble());
         assertTrue(se.get("cv").get("oneSeIndex").asInt() <= se.get("cv").get("minIndex").asInt());
+    }
+
+    /**
+     * {@code --ridge-rescale}: the chosen coefficients are (1 + L2) times the naive elastic-net ones (Zou &amp;
+     * Hastie, J. R. Statist. Soc. B 67(2), 2005, section 3.2, from memory), the JSON says so, and the RSS
+     * is the weighted squared error summed directly on the table's rows.
+     */
+    @Test
+    void fit_ridgeRescale_reportsOnePlusRidgeTimesNaiveWithDirectRss() throws IOException {
+        double[][] data = rows(5, 200);
+        Path in = csv("t.csv", data);
+        String[] common = {"fit", "--input", in.toString(), "--target", "y", "--ridge", "0.5", "--select",
+            "relative-penalty", "--select-value", "0.1", "--refit"};
+        JsonNode root0 = fitJson("naive.json", common);
+        JsonNode root1 = fitJson("rescaled.json", concat(common, "--ridge-rescale"));
+        Run r = run(concat(common, "--ridge-rescale"));
+        assertTrue(r.out().contains("coefficients rescaled by 1.5 = 1 + ridge"), r.out());
+        assertEquals(false, root0.get("ridgeRescale").asBoolean());
+        assertEquals(true, root1.get("ridgeRescale").asBoolean());
+        JsonNode s0 = root0.get("selected");
+        JsonNode s1 = root1.get("selected");
+        assertEquals(1.0, s0.get("coefficientScale").asDouble(), 0.0);
+        assertEquals(1.5, s1.get("coefficientScale").asDouble(), 0.0);
+        assertEquals(strings(s0.get("active")), strings(s1.get("active")));
+        assertTrue(s0.get("active").size() >= 2);
+        for (String f : strings(s0.get("active"))) {
+            assertEquals(1.5 * s0.get("standardized").get(f).asDouble(), s1.get("standardized").get(f).asDouble(), 0.0);
+            assertEquals(1.5, s1.get("coefficients").get(f).asDouble() / s0.get("coefficients").get(f).asDouble(),
+                    1e-14, f);
+            assertEquals(s0.get("refit").get("coefficients").get(f).asDouble(),
+                    s1.get("refit").get("coefficients").get(f).asDouble(), 0.0, f);
+        }
+        double a = s1.get("intercept").asDouble();
+        double rss = 0;
+        for (double[] row : data) {
+            double e = row[4] - a;
+            for (int j = 0; j < 4; j++) {
+                JsonNode c = s1.get("coefficients").get(NAMES[j]);
+                e -= c == null ? 0 : c.asDouble() * row[j];
+            }
+            rss += e * e;
+        }
+        assertEquals(rss, s1.get("rss").asDouble(), 1e-9 * rss);
+        assertTrue(Math.abs(rss - s0.get("rss").asDouble()) > 1e-6 * rss, "the naive model has another RSS");
+    }
+
+    @Test
+    void fit_ridgeRescaleWithoutRidge_changesNothing() throws IOException {
+        Path in = csv("t.csv", rows(6, 150));
+        JsonNode root0 = fitJson("plain.json", "fit", "--input", in.toString(), "--target", "y");
+        JsonNode root1 = fitJson("flag.json", "fit", "--input", in.toString(), "--target", "y", "--ridge-rescale");
+        assertEquals(root0.get("selected"), root1.get("selected"));
+        assertEquals(root0.get("knots"), root1.get("knots"));
+        assertEquals(1.0, root1.get("selected").get("coefficientScale").asDouble(), 0.0);
+    }
+
+    /** Runs {@code fit args --json dir/name}, requires exit code 0 and returns the JSON written. */
+    private JsonNode fitJson(String name, String... args) throws IOException {
+        Path json = dir.resolve(name);
+        Run r = run(concat(args, "--json", json.toString()));
+        assertEquals(0, r.code(), r.err());
+        return new ObjectMapper().readTree(json.toFile());
+    }
+
+    private static String[] concat(String[] head, String... tail) {
+        String[] out = java.util.Arrays.copyOf(head, head.length + tail.length);
+        System.arraycopy(tail, 0, out, head.length, tail.length);
+        return out;
     }
 
     private void assertBadInput(Run r, String... fragments) {

@@ -14,13 +14,14 @@ import lariat.audit.Recomputer;
 import lariat.audit.VersionVerdict;
 import lariat.cli.Main;
 import lariat.config.StageConfig;
+import lariat.it.support.StageProcess;
+import lariat.it.support.StageTestKit;
 import lariat.it.support.TestKafka;
 import lariat.schema.ActiveFeature;
 import lariat.schema.ModelVersion;
 import org.apache.kafka.clients.admin.Admin;
 import org.apache.kafka.clients.admin.RecordsToDelete;
 import org.apache.kafka.clients.consumer.Consumer;
-import org.apache.kafka.clients.consumer.OffsetAndMetadata;
 import org.apache.kafka.clients.producer.KafkaProducer;
 import org.apache.kafka.clients.producer.Producer;
 import org.apache.kafka.clients.producer.ProducerRecord;
@@ -53,6 +54,7 @@ import java.util.Optional;
 import java.util.Properties;
 import java.util.Random;
 import java.util.Set;
+import java.util.concurrent.atomic.AtomicReference;
 import java.util.function.Function;
 import java.util.stream.Collectors;
 
@@ -99,7 +101,7 @@ class AuditAfterKillIT {
         stageConfig = StageConfig.load(config);
         Path log = dir.resolve("stage.log");
         produce(0, RECORDS / 2);
-        try (StageChild first = StageChild.start(config, log)) {
+        try (StageProcess first = StageProcess.start(config, log)) {
             awaitCommitted(RECORDS / 4);
             if (!first.alive()) {
                 throw new IllegalStateException("the first stage exited before it could be killed; see " + log);
@@ -107,9 +109,9 @@ class AuditAfterKillIT {
             first.kill();
         }
         produce(RECORDS / 2, RECORDS);
-        try (StageChild second = StageChild.start(config, log)) {
+        try (StageProcess second = StageProcess.start(config, log)) {
             awaitCommitted(RECORDS);
-            second.stop();
+            second.close();
         }
         published = read(models);
     }
@@ -320,10 +322,7 @@ class AuditAfterKillIT {
         p.put("refit.every.records", "150");
         p.put("cycle.interval.ms", "200");
         p.put("select.rule", "bic");
-        p.put("model.topic", models);
-        p.put("alert.topic", models + "-alerts");
-        p.put("snapshot.topic", models + "-snapshots");
-        p.put("deadletter.topic", models + "-dead");
+        StageTestKit.outputTopics(p, models, models + "-alerts", models + "-snapshots", models + "-dead");
         p.put("metrics.port", "0");
         p.put("shutdown.timeout.ms", "5000");
         p.put("session.timeout.ms", "6000");
@@ -359,21 +358,8 @@ class AuditAfterKillIT {
     }
 
     private void awaitCommitted(long offset) throws Exception {
-        long deadline = System.nanoTime() + Duration.ofSeconds(90).toNanos();
-        TopicPartition tp = new TopicPartition(input, 0);
-        try (Admin admin = Admin.create(TestKafka.adminProperties())) {
-            while (System.nanoTime() < deadline) {
-                Map<TopicPartition, OffsetAndMetadata> c = admin.listConsumerGroupOffsets(group)
-                        .partitionsToOffsetAndMetadata().get();
-                OffsetAndMetadata o = c.get(tp);
-                if (o != null && o.offset() >= offset) {
-                    return;
-                }
-                Thread.sleep(200);
-            }
-        }
-        throw new IllegalStateException("the stage did not commit offset " + offset + " within 90 s; see "
-                + dir.resolve("stage.log"));
+        StageTestKit.awaitCommitted(group, Map.of(new TopicPartition(input, 0), offset), new AtomicReference<>(),
+                Duration.ofSeconds(90), "; see " + dir.resolve("stage.log"));
     }
 
     private ClusterClients clients() {

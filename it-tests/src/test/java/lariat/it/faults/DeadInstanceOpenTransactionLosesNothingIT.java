@@ -1,5 +1,6 @@
 package lariat.it.faults;
 
+import lariat.it.support.StageProcess;
 import java.nio.charset.StandardCharsets;
 import java.time.Duration;
 import java.util.Map;

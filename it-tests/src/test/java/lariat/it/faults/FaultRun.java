@@ -17,7 +17,8 @@ import java.util.concurrent.ExecutionException;
 import java.util.concurrent.Future;
 import java.util.function.BooleanSupplier;
 
-import lariat.it.support.PartitionReader;
+import lariat.it.support.StageProcess;
+import lariat.it.support.StageTestKit;
 import lariat.it.support.TestKafka;
 import lariat.schema.StationReading;
 import org.apache.kafka.clients.admin.Admin;
@@ -29,7 +30,6 @@ import org.apache.kafka.clients.producer.KafkaProducer;
 import org.apache.kafka.clients.producer.ProducerConfig;
 import org.apache.kafka.clients.producer.ProducerRecord;
 import org.apache.kafka.clients.producer.RecordMetadata;
-import org.apache.kafka.common.PartitionInfo;
 import org.apache.kafka.common.TopicPartition;
 import org.apache.kafka.common.errors.GroupIdNotFoundException;
 
@@ -86,26 +86,15 @@ final class FaultRun implements AutoCloseable {
     /** The configuration of instance {@code instance}: short cycles, a refit every cycle with new records. */
     Map<String, String> config(String instance) {
         Map<String, String> c = new TreeMap<>();
-        c.put("bootstrap.servers", TestKafka.bootstrapServers());
+        StageTestKit.stationInput(c, input, StationFeed.FEATURES, StationFeed.TARGET);
         c.put("stage.id", name);
         c.put("stage.instance", instance);
-        c.put("input.topic", input);
-        c.put("input.format", "avro-single-object");
-        c.put("field.key", "station");
-        c.put("field.time", "time");
-        c.put("field.weight", "weight");
-        c.put("field.features.map", "channels");
-        c.put("field.target", StationFeed.TARGET);
-        c.put("field.features", String.join(",", StationFeed.FEATURES));
         c.put("moments.block.records", Integer.toString(BLOCK));
         c.put("forget.half.life.ms", Long.toString(HALF_LIFE_MS));
         c.put("refit.every.records", "1");
         c.put("cycle.interval.ms", "250");
         c.put("select.rule", "bic");
-        c.put("model.topic", models);
-        c.put("alert.topic", alerts);
-        c.put("snapshot.topic", snapshots);
-        c.put("deadletter.topic", deadLetters);
+        StageTestKit.outputTopics(c, models, alerts, snapshots, deadLetters);
         c.put("metrics.port", "0");
         c.put("shutdown.timeout.ms", "5000");
         c.put("session.timeout.ms", "6000");
@@ -141,7 +130,7 @@ final class FaultRun implements AutoCloseable {
 
     /** Sends a good reading keyed by its station. */
     void send(StationReading r) {
-        producer.send(new ProducerRecord<>(input, utf8(r.getStation().toString()), StationFeed.encode(r)));
+        producer.send(new ProducerRecord<>(input, utf8(r.getStation().toString()), StageTestKit.encode(r)));
     }
 
     /** Sends raw value bytes keyed by {@code key}. */
@@ -155,16 +144,7 @@ final class FaultRun implements AutoCloseable {
 
     /** Every committed record of {@code topic}, partition by partition, each in offset order. */
     List<ConsumerRecord<byte[], byte[]>> readAll(String topic) {
-        List<ConsumerRecord<byte[], byte[]>> out = new ArrayList<>();
-        Properties p = TestKafka.consumerProperties(name + "-reader");
-        List<PartitionInfo> parts;
-        try (KafkaConsumer<byte[], byte[]> c = new KafkaConsumer<>(p)) {
-            parts = c.partitionsFor(topic, READ_TIMEOUT);
-        }
-        for (PartitionInfo info : parts) {
-            out.addAll(PartitionReader.readToEnd(p, new TopicPartition(topic, info.partition()), READ_TIMEOUT));
-        }
-        return out;
+        return StageTestKit.readCommitted(topic, READ_TIMEOUT);
     }
 
     /** The oracle fed every committed input record (all must be good readings), in partition order. */

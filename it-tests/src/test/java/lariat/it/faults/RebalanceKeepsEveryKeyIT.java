@@ -1,5 +1,6 @@
 package lariat.it.faults;
 
+import lariat.it.support.StageProcess;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 

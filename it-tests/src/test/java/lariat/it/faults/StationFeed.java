@@ -2,7 +2,6 @@ package lariat.it.faults;
 
 import java.io.IOException;
 import java.io.UncheckedIOException;
-import java.nio.ByteBuffer;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -79,21 +78,9 @@ final class StationFeed {
                 .build();
     }
 
-    /** Avro single-object encoding of {@code r}, as the stage's {@code avro-single-object} format reads. */
-    static byte[] encode(StationReading r) {
-        try {
-            ByteBuffer b = r.toByteBuffer();
-            byte[] out = new byte[b.remaining()];
-            b.get(out);
-            return out;
-        } catch (IOException e) {
-            throw new UncheckedIOException(e);
-        }
-    }
-
     /**
-     * The inverse of {@link #encode}, with Avro's generic reader (the Avro 1.12 class allow-list
-     * refuses specific classes by default) and the time as epoch milliseconds.
+     * The inverse of {@link lariat.it.support.StageTestKit#encode}, with Avro's generic reader (the
+     * Avro 1.12 class allow-list refuses specific classes by default) and the time as epoch milliseconds.
      */
     static StationReading decode(byte[] value) {
         try {

@@ -1,44 +1,28 @@
 package lariat.it.stage;
 
-import lariat.config.StageConfig;
-import lariat.it.support.PartitionReader;
+import lariat.it.support.StageTestKit;
 import lariat.it.support.TestKafka;
 import lariat.moments.PaneWindow;
 import lariat.schema.ModelVersion;
-import lariat.schema.StationReading;
 import lariat.stage.DeadLetters;
-import lariat.stage.Stage;
-import lariat.stage.StageAssembly;
-import org.apache.avro.util.ClassSecurityValidator;
-import org.apache.kafka.clients.admin.Admin;
-import org.apache.kafka.clients.admin.OffsetSpec;
 import org.apache.kafka.clients.consumer.ConsumerRecord;
-import org.apache.kafka.clients.consumer.OffsetAndMetadata;
 import org.apache.kafka.clients.producer.KafkaProducer;
 import org.apache.kafka.clients.producer.ProducerRecord;
 import org.apache.kafka.clients.producer.RecordMetadata;
-import org.apache.kafka.common.TopicPartition;
-import org.apache.kafka.common.header.Header;
 import org.junit.jupiter.api.Test;
 
-import java.nio.ByteBuffer;
 import java.nio.charset.StandardCharsets;
-import java.nio.file.Path;
 import java.time.Duration;
-import java.time.Instant;
 import java.util.ArrayList;
-import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Random;
 import java.util.Set;
 import java.util.TreeMap;
 import java.util.TreeSet;
-import java.util.concurrent.atomic.AtomicReference;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
-import static org.junit.jupiter.api.Assertions.assertTrue;
 
 /**
  * The stage with a sliding event-time window against a real broker (TestKafka): one station's readings
@@ -89,13 +73,14 @@ class SlidingWindowStageIT {
                 }
             }
         }
-        runUntilConsumed(props, input);
+        StageTestKit.runUntilConsumed(props, input, WAIT);
 
-        List<ConsumerRecord<byte[], byte[]>> dls = readAll(deadLetters);
+        List<ConsumerRecord<byte[], byte[]>> dls = StageTestKit.readCommitted(deadLetters, WAIT);
         Set<Long> dlOffsets = new TreeSet<>();
         for (ConsumerRecord<byte[], byte[]> d : dls) {
-            assertEquals(DeadLetters.TOO_LATE_FOR_WINDOW, header(d, DeadLetters.REASON), "reason of a late record");
-            dlOffsets.add(Long.parseLong(header(d, DeadLetters.SOURCE_OFFSET)));
+            assertEquals(DeadLetters.TOO_LATE_FOR_WINDOW, StageTestKit.header(d, DeadLetters.REASON),
+                    "reason of a late record");
+            dlOffsets.add(Long.parseLong(StageTestKit.header(d, DeadLetters.SOURCE_OFFSET)));
         }
         assertFalse(lateOffsets.isEmpty(), "the scenario sends late records");
         assertEquals(lateOffsets, dlOffsets, "exactly the late records are dead letters");
@@ -119,24 +104,13 @@ class SlidingWindowStageIT {
 
     private static Map<String, String> config(String input, String models, String deadLetters) {
         Map<String, String> p = new TreeMap<>();
-        p.put("bootstrap.servers", TestKafka.bootstrapServers());
-        p.put("input.topic", input);
-        p.put("input.format", "avro-single-object");
-        p.put("field.key", "station");
-        p.put("field.time", "time");
-        p.put("field.weight", "weight");
-        p.put("field.features.map", "channels");
-        p.put("field.features", String.join(",", FEATURES));
-        p.put("field.target", TARGET);
+        StageTestKit.stationInput(p, input, List.of(FEATURES), TARGET);
         p.put("window.pane.ms", Long.toString(PANE_MS));
         p.put("window.panes", Integer.toString(PANES));
         p.put("refit.every.records", "100");
         p.put("cycle.interval.ms", "100");
         p.put("select.rule", "bic");
-        p.put("model.topic", models);
-        p.put("alert.topic", input + "-alerts");
-        p.put("snapshot.topic", input + "-snapshots");
-        p.put("deadletter.topic", deadLetters);
+        StageTestKit.outputTopics(p, models, input + "-alerts", input + "-snapshots", deadLetters);
         p.put("stage.id", input + "-stage");
         p.put("metrics.port", "0");
         p.put("shutdown.timeout.ms", "10000");
@@ -144,81 +118,15 @@ class SlidingWindowStageIT {
         return p;
     }
 
-    private static byte[] reading(String station, long t, double[] z) throws java.io.IOException {
-        Map<String, Double> ch = new HashMap<>();
-        for (int j = 0; j < FEATURES.length; j++) {
-            ch.put(FEATURES[j], z[j]);
-        }
-        ch.put(TARGET, z[FEATURES.length]);
-        ByteBuffer b = StationReading.newBuilder().setStation(station).setTime(Instant.ofEpochMilli(t))
-                .setChannels(new HashMap<>(ch)).setWeight(1.0).build().toByteBuffer();
-        byte[] out = new byte[b.remaining()];
-        b.get(out);
-        return out;
-    }
-
-    private static void runUntilConsumed(Map<String, String> props, String input) throws Exception {
-        Stage stage = StageAssembly.create(StageConfig.of(props), Path.of(""));
-        AtomicReference<Throwable> failure = new AtomicReference<>();
-        Thread loop = new Thread(() -> {
-            try {
-                stage.run();
-            } catch (InterruptedException e) {
-                Thread.currentThread().interrupt();
-            } catch (RuntimeException e) {
-                failure.set(e);
-            }
-        }, "stage-under-test");
-        loop.start();
-        TopicPartition tp = new TopicPartition(input, 0);
-        long deadline = System.nanoTime() + WAIT.toNanos();
-        try (Admin admin = Admin.create(TestKafka.adminProperties())) {
-            long end = admin.listOffsets(Map.of(tp, OffsetSpec.latest())).all().get().get(tp).offset();
-            while (true) {
-                OffsetAndMetadata c = admin.listConsumerGroupOffsets(props.get("stage.id"))
-                        .partitionsToOffsetAndMetadata().get().get(tp);
-                if (c != null && c.offset() == end) {
-                    break;
-                }
-                if (failure.get() != null) {
-                    throw new IllegalStateException("stage stopped", failure.get());
-                }
-                if (System.nanoTime() > deadline) {
-                    throw new IllegalStateException("stage did not consume to " + end + "; committed " + c);
-                }
-                Thread.sleep(200);
-            }
-        }
-        stage.shutdown();
-        assertTrue(stage.awaitStopped(30_000), "stage did not stop within 30 s");
+    private static byte[] reading(String station, long t, double[] z) {
+        return StageTestKit.reading(station, t, StageTestKit.channels(FEATURES, TARGET, z), 1.0);
     }
 
     private static List<ModelVersion> readModels(String topic) throws Exception {
-        ClassSecurityValidator.setGlobal(ClassSecurityValidator.composite(ClassSecurityValidator.getGlobal(),
-                ClassSecurityValidator.builder().add(ModelVersion.class).add(lariat.schema.ActiveFeature.class)
-                        .add(lariat.schema.ExcludedFeature.class).add(lariat.schema.Criteria.class)
-                        .add(lariat.schema.PathKnot.class).add(lariat.schema.ActiveSetChange.class).build()));
         List<ModelVersion> out = new ArrayList<>();
-        for (ConsumerRecord<byte[], byte[]> r : readAll(topic)) {
-            out.add(ModelVersion.fromByteBuffer(ByteBuffer.wrap(r.value())));
+        for (ConsumerRecord<byte[], byte[]> r : StageTestKit.readCommitted(topic, WAIT)) {
+            out.add(StageTestKit.model(r.value()));
         }
         return out;
-    }
-
-    private static List<ConsumerRecord<byte[], byte[]>> readAll(String topic) throws Exception {
-        List<ConsumerRecord<byte[], byte[]>> out = new ArrayList<>();
-        try (Admin admin = Admin.create(TestKafka.adminProperties())) {
-            int partitions = admin.describeTopics(List.of(topic)).allTopicNames().get().get(topic).partitions().size();
-            for (int p = 0; p < partitions; p++) {
-                out.addAll(PartitionReader.readToEnd(TestKafka.consumerProperties("reader-" + topic),
-                        new TopicPartition(topic, p), WAIT));
-            }
-        }
-        return out;
-    }
-
-    private static String header(ConsumerRecord<byte[], byte[]> r, String name) {
-        Header h = r.headers().lastHeader(name);
-        return h == null ? null : new String(h.value(), StandardCharsets.UTF_8);
     }
 }

@@ -1,7 +1,8 @@
 package lariat.it.stage;
 
 import lariat.config.StageConfig;
-import lariat.it.support.PartitionReader;
+import lariat.it.support.StageTestKit;
+import lariat.it.support.StageTestKit.InProcessStage;
 import lariat.it.support.TestKafka;
 import lariat.moments.MomentStream;
 import lariat.moments.Moments;
@@ -10,7 +11,6 @@ import lariat.path.PathEngine;
 import lariat.path.PathOptions;
 import lariat.schema.ActiveFeature;
 import lariat.schema.ModelVersion;
-import lariat.schema.StationReading;
 import lariat.select.ModelSelector;
 import lariat.select.RegressionMoments;
 import lariat.select.SelectedModel;
@@ -20,16 +20,10 @@ import lariat.stage.DeadLetters;
 import lariat.stage.Stage;
 import lariat.stage.StageAssembly;
 import lariat.stage.TopicSetup;
-import org.apache.avro.util.ClassSecurityValidator;
-import org.apache.kafka.clients.admin.Admin;
-import org.apache.kafka.clients.admin.OffsetSpec;
 import org.apache.kafka.clients.consumer.ConsumerRecord;
-import org.apache.kafka.clients.consumer.OffsetAndMetadata;
 import org.apache.kafka.clients.producer.KafkaProducer;
 import org.apache.kafka.clients.producer.ProducerRecord;
 import org.apache.kafka.clients.producer.RecordMetadata;
-import org.apache.kafka.common.TopicPartition;
-import org.apache.kafka.common.header.Header;
 import org.junit.jupiter.api.Test;
 
 import java.io.IOException;
@@ -38,11 +32,9 @@ import java.net.URI;
 import java.net.http.HttpClient;
 import java.net.http.HttpRequest;
 import java.net.http.HttpResponse;
-import java.nio.ByteBuffer;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
 import java.time.Duration;
-import java.time.Instant;
 import java.util.ArrayList;
 import java.util.HashMap;
 import java.util.LinkedHashMap;
@@ -51,9 +43,7 @@ import java.util.Map;
 import java.util.Random;
 import java.util.Set;
 import java.util.TreeMap;
-import java.util.concurrent.ExecutionException;
 import java.util.concurrent.Future;
-import java.util.concurrent.atomic.AtomicReference;
 import java.util.stream.Collectors;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
@@ -108,29 +98,17 @@ class StageEndToEndIT {
         List<Sent> good = new ArrayList<>();
         Map<String, String> badReasons = new LinkedHashMap<>();
         Map<String, Long> badOffsets = new HashMap<>();
-        Stage stage = StageAssembly.create(StageConfig.of(props), Path.of(""));
-        AtomicReference<Throwable> failure = new AtomicReference<>();
-        Thread loop = new Thread(() -> {
-            try {
-                stage.run();
-            } catch (InterruptedException e) {
-                Thread.currentThread().interrupt();
-            } catch (RuntimeException e) {
-                failure.set(e);
-            }
-        }, "stage-under-test");
-        loop.start();
+        InProcessStage stage = InProcessStage.start(props);
         Random rnd = new Random(SEED);
         int bursts = 3;
         for (int b = 0; b < bursts; b++) {
             produce(input, good, badOffsets, badReasons, b * RECORDS_PER_STATION / bursts,
                     (b + 1) * RECORDS_PER_STATION / bursts, rnd);
-            awaitConsumed(props.get("stage.id"), input, failure);
+            stage.awaitConsumed(input, WAIT);
         }
         String metrics = httpGet(metricsPort, "/metrics");
         int ready = httpStatus(metricsPort, "/readyz");
-        stage.shutdown();
-        assertTrue(stage.awaitStopped(30_000), "stage did not stop within 30 s");
+        stage.stop();
 
         assertEquals(200, ready, "readyz after restore");
         assertTrue(metrics.contains("lariat_records_in_total " + (good.size() + badOffsets.size())),
@@ -140,13 +118,9 @@ class StageEndToEndIT {
         Set<String> stations = good.stream().map(g -> g.station).collect(Collectors.toSet());
         assertEquals(stations, byKey.keySet(), "every station published");
         for (Map.Entry<String, List<ModelVersion>> e : byKey.entrySet()) {
-            List<ModelVersion> versions = e.getValue();
-            assertTrue(versions.size() >= bursts, e.getKey() + " published " + versions.size() + " versions");
-            for (int i = 0; i < versions.size(); i++) {
-                assertEquals(i + 1, versions.get(i).getVersion(), e.getKey() + " versions contiguous from 1");
-                assertEqualsOffline(versions.get(i), good);
-            }
+            assertTrue(e.getValue().size() >= bursts, e.getKey() + " published " + e.getValue().size() + " versions");
         }
+        assertContiguousAndOffline(byKey, good, "versions contiguous from 1");
         assertDeadLetters(deadLetters, input, badOffsets, badReasons);
     }
 
@@ -162,41 +136,19 @@ class StageEndToEndIT {
         Map<String, String> badReasons = new LinkedHashMap<>();
         Random rnd = new Random(SEED + 1);
         produce(input, good, badOffsets, badReasons, 0, RECORDS_PER_STATION / 2, rnd);
-        runUntilConsumed(props, input);
+        StageTestKit.runUntilConsumed(props, input, WAIT);
         Map<String, Long> lastBefore = new HashMap<>();
         readModels(models).forEach((k, v) -> lastBefore.put(k, v.get(v.size() - 1).getVersion()));
         produce(input, good, badOffsets, badReasons, RECORDS_PER_STATION / 2, RECORDS_PER_STATION, rnd);
-        runUntilConsumed(props, input);
+        StageTestKit.runUntilConsumed(props, input, WAIT);
 
         Map<String, List<ModelVersion>> byKey = readModels(models);
         assertEquals(lastBefore.keySet(), byKey.keySet(), "stations before and after the restart");
         for (Map.Entry<String, List<ModelVersion>> e : byKey.entrySet()) {
-            List<ModelVersion> versions = e.getValue();
-            assertTrue(versions.size() > lastBefore.get(e.getKey()), e.getKey() + " published after the restart");
-            for (int i = 0; i < versions.size(); i++) {
-                assertEquals(i + 1, versions.get(i).getVersion(), e.getKey() + " versions contiguous across restart");
-                assertEqualsOffline(versions.get(i), good);
-            }
+            assertTrue(e.getValue().size() > lastBefore.get(e.getKey()), e.getKey() + " published after the restart");
         }
+        assertContiguousAndOffline(byKey, good, "versions contiguous across restart");
         assertDeadLetters(deadLetters, input, badOffsets, badReasons);
-    }
-
-    private static void runUntilConsumed(Map<String, String> props, String input) throws Exception {
-        Stage stage = StageAssembly.create(StageConfig.of(props), Path.of(""));
-        AtomicReference<Throwable> failure = new AtomicReference<>();
-        Thread loop = new Thread(() -> {
-            try {
-                stage.run();
-            } catch (InterruptedException e) {
-                Thread.currentThread().interrupt();
-            } catch (RuntimeException e) {
-                failure.set(e);
-            }
-        }, "stage-under-test");
-        loop.start();
-        awaitConsumed(props.get("stage.id"), input, failure);
-        stage.shutdown();
-        assertTrue(stage.awaitStopped(30_000), "stage did not stop within 30 s");
     }
 
     @Test
@@ -216,24 +168,13 @@ class StageEndToEndIT {
 
     private static Map<String, String> config(String input, String models, String deadLetters, int metricsPort) {
         Map<String, String> p = new TreeMap<>();
-        p.put("bootstrap.servers", TestKafka.bootstrapServers());
-        p.put("input.topic", input);
-        p.put("input.format", "avro-single-object");
-        p.put("field.key", "station");
-        p.put("field.time", "time");
-        p.put("field.weight", "weight");
-        p.put("field.features.map", "channels");
-        p.put("field.features", String.join(",", FEATURES));
-        p.put("field.target", TARGET);
+        StageTestKit.stationInput(p, input, List.of(FEATURES), TARGET);
         p.put("moments.block.records", Integer.toString(BLOCK));
         p.put("refit.every.records", "200");
         p.put("cycle.interval.ms", "100");
         p.put("select.rule", "bic");
         p.put("select.refit", "true");
-        p.put("model.topic", models);
-        p.put("alert.topic", input + "-alerts");
-        p.put("snapshot.topic", input + "-snapshots");
-        p.put("deadletter.topic", deadLetters);
+        StageTestKit.outputTopics(p, models, input + "-alerts", input + "-snapshots", deadLetters);
         p.put("stage.id", input + "-stage");
         p.put("metrics.port", Integer.toString(metricsPort));
         p.put("shutdown.timeout.ms", "10000");
@@ -308,8 +249,7 @@ class StageEndToEndIT {
                 double[] z = new double[FEATURES.length + 1];
                 Map<String, Double> ch = channels(z);
                 ch.remove(FEATURES[2]);
-                value = StationReading.newBuilder().setStation(station).setTime(Instant.ofEpochMilli(1L))
-                        .setChannels(new HashMap<>(ch)).setWeight(1.0).build().toByteBuffer().array();
+                value = StageTestKit.reading(station, 1L, ch, 1.0);
                 reason = "MISSING_FIELD";
                 break;
             }
@@ -329,32 +269,30 @@ class StageEndToEndIT {
                 reason = "UNKNOWN_SCHEMA";
                 break;
         }
-        RecordMetadata md = send(producer, input, station, value);
+        RecordMetadata md = StageTestKit.send(producer, input, station, value);
         String id = md.partition() + "/" + md.offset();
         badOffsets.put(id, md.offset());
         badReasons.put(id, reason);
     }
 
-    private static RecordMetadata send(KafkaProducer<byte[], byte[]> producer, String topic, String key,
-                                       byte[] value) throws ExecutionException, InterruptedException {
-        return producer.send(new ProducerRecord<>(topic, key.getBytes(StandardCharsets.UTF_8), value)).get();
-    }
-
-    private static byte[] reading(String station, long t, double[] z, double weight) throws IOException {
-        ByteBuffer b = StationReading.newBuilder().setStation(station).setTime(Instant.ofEpochMilli(t))
-                .setChannels(new HashMap<>(channels(z))).setWeight(weight).build().toByteBuffer();
-        byte[] out = new byte[b.remaining()];
-        b.get(out);
-        return out;
+    private static byte[] reading(String station, long t, double[] z, double weight) {
+        return StageTestKit.reading(station, t, channels(z), weight);
     }
 
     private static Map<String, Double> channels(double[] z) {
-        Map<String, Double> ch = new LinkedHashMap<>();
-        for (int j = 0; j < FEATURES.length; j++) {
-            ch.put(FEATURES[j], z[j]);
+        return StageTestKit.channels(FEATURES, TARGET, z);
+    }
+
+    /** Each key's versions are 1, 2, ... in order and each equals the offline fit of its records. */
+    private static void assertContiguousAndOffline(Map<String, List<ModelVersion>> byKey, List<Sent> good,
+                                                   String contiguous) {
+        for (Map.Entry<String, List<ModelVersion>> e : byKey.entrySet()) {
+            List<ModelVersion> versions = e.getValue();
+            for (int i = 0; i < versions.size(); i++) {
+                assertEquals(i + 1, versions.get(i).getVersion(), e.getKey() + " " + contiguous);
+                assertEqualsOffline(versions.get(i), good);
+            }
         }
-        ch.put(TARGET, z[FEATURES.length]);
-        return ch;
     }
 
     /** The offline oracle: the station's good records before the version's end offset, in order. */
@@ -403,13 +341,9 @@ class StageEndToEndIT {
     }
 
     private static Map<String, List<ModelVersion>> readModels(String topic) throws Exception {
-        ClassSecurityValidator.setGlobal(ClassSecurityValidator.composite(ClassSecurityValidator.getGlobal(),
-                ClassSecurityValidator.builder().add(ModelVersion.class).add(lariat.schema.ActiveFeature.class)
-                        .add(lariat.schema.ExcludedFeature.class).add(lariat.schema.Criteria.class)
-                        .add(lariat.schema.PathKnot.class).add(lariat.schema.ActiveSetChange.class).build()));
         Map<String, List<ModelVersion>> byKey = new TreeMap<>();
-        for (ConsumerRecord<byte[], byte[]> r : readAll(topic)) {
-            ModelVersion mv = ModelVersion.fromByteBuffer(ByteBuffer.wrap(r.value()));
+        for (ConsumerRecord<byte[], byte[]> r : StageTestKit.readCommitted(topic, WAIT)) {
+            ModelVersion mv = StageTestKit.model(r.value());
             assertEquals(mv.getKey(), new String(r.key(), StandardCharsets.UTF_8), "record key is the model key");
             byKey.computeIfAbsent(mv.getKey(), k -> new ArrayList<>()).add(mv);
         }
@@ -418,67 +352,20 @@ class StageEndToEndIT {
 
     private static void assertDeadLetters(String topic, String input, Map<String, Long> badOffsets,
                                           Map<String, String> badReasons) throws Exception {
-        List<ConsumerRecord<byte[], byte[]>> dls = readAll(topic);
+        List<ConsumerRecord<byte[], byte[]>> dls = StageTestKit.readCommitted(topic, WAIT);
         assertEquals(badOffsets.size(), dls.size(), "one dead letter per bad record");
         for (ConsumerRecord<byte[], byte[]> d : dls) {
-            assertEquals(input, header(d, DeadLetters.SOURCE_TOPIC), "source topic header");
-            String id = header(d, DeadLetters.SOURCE_PARTITION) + "/" + header(d, DeadLetters.SOURCE_OFFSET);
+            assertEquals(input, StageTestKit.header(d, DeadLetters.SOURCE_TOPIC), "source topic header");
+            String id = StageTestKit.header(d, DeadLetters.SOURCE_PARTITION) + "/"
+                    + StageTestKit.header(d, DeadLetters.SOURCE_OFFSET);
             assertTrue(badOffsets.containsKey(id), "dead letter " + id + " is one of the bad records");
             String expected = badReasons.get(id);
-            String reason = header(d, DeadLetters.REASON);
+            String reason = StageTestKit.header(d, DeadLetters.REASON);
             assertNotNull(reason, "reason header");
             if (expected != null) {
                 assertEquals(expected, reason, "reason of " + id);
             }
             assertFalse(reason.isEmpty(), "reason of " + id);
-        }
-    }
-
-    private static String header(ConsumerRecord<byte[], byte[]> r, String name) {
-        Header h = r.headers().lastHeader(name);
-        return h == null ? null : new String(h.value(), StandardCharsets.UTF_8);
-    }
-
-    private static List<ConsumerRecord<byte[], byte[]>> readAll(String topic) throws Exception {
-        List<ConsumerRecord<byte[], byte[]>> out = new ArrayList<>();
-        try (Admin admin = Admin.create(TestKafka.adminProperties())) {
-            int partitions = admin.describeTopics(List.of(topic)).allTopicNames().get().get(topic).partitions().size();
-            for (int p = 0; p < partitions; p++) {
-                out.addAll(PartitionReader.readToEnd(TestKafka.consumerProperties("reader-" + topic),
-                        new TopicPartition(topic, p), WAIT));
-            }
-        }
-        return out;
-    }
-
-    /** Waits until the stage's group has committed the end offset of every input partition. */
-    private static void awaitConsumed(String group, String input, AtomicReference<Throwable> failure)
-            throws Exception {
-        long deadline = System.nanoTime() + WAIT.toNanos();
-        try (Admin admin = Admin.create(TestKafka.adminProperties())) {
-            int partitions = admin.describeTopics(List.of(input)).allTopicNames().get().get(input).partitions().size();
-            Map<TopicPartition, OffsetSpec> latest = new HashMap<>();
-            for (int p = 0; p < partitions; p++) {
-                latest.put(new TopicPartition(input, p), OffsetSpec.latest());
-            }
-            Map<TopicPartition, Long> ends = new HashMap<>();
-            admin.listOffsets(latest).all().get().forEach((tp, info) -> ends.put(tp, info.offset()));
-            while (true) {
-                Map<TopicPartition, OffsetAndMetadata> committed = admin.listConsumerGroupOffsets(group)
-                        .partitionsToOffsetAndMetadata().get();
-                boolean done = ends.entrySet().stream().allMatch(e -> committed.get(e.getKey()) != null
-                        && committed.get(e.getKey()).offset() == e.getValue());
-                if (done) {
-                    return;
-                }
-                if (failure.get() != null) {
-                    throw new IllegalStateException("stage stopped", failure.get());
-                }
-                if (System.nanoTime() > deadline) {
-                    throw new IllegalStateException("stage did not consume " + ends + "; committed " + committed);
-                }
-                Thread.sleep(200);
-            }
         }
     }
 

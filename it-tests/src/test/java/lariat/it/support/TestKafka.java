@@ -1,5 +1,6 @@
 package lariat.it.support;
 
+import java.time.Duration;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
@@ -7,10 +8,12 @@ import java.util.Optional;
 import java.util.Properties;
 import java.util.UUID;
 import java.util.concurrent.ExecutionException;
+import java.util.concurrent.TimeoutException;
 import java.util.concurrent.atomic.AtomicInteger;
 import java.util.regex.Pattern;
 
 import lariat.broker.EmbeddedBroker;
+import lariat.stage.TopicSetup;
 import org.apache.kafka.clients.admin.Admin;
 import org.apache.kafka.clients.admin.NewTopic;
 import org.slf4j.Logger;
@@ -37,6 +40,7 @@ public final class TestKafka {
     /** Environment variable forcing the kind: {@code embedded} or {@code container}. */
     public static final String KIND_ENV = "LARIAT_TEST_BROKER";
 
+    private static final long LEADER_WAIT_MS = 30_000;
     private static final Logger LOG = LoggerFactory.getLogger(TestKafka.class);
     private static final Pattern TOPIC_PREFIX = Pattern.compile("[a-zA-Z0-9._-]{1,100}");
     private static final String RUN_ID = UUID.randomUUID().toString().substring(0, 8);
@@ -83,7 +87,7 @@ public final class TestKafka {
 
     /**
      * Creates a topic with the cluster's default replication factor and waits until the controller
-     * has created it.
+     * has created it and every partition has a leader.
      *
      * @param configs topic configurations such as {@code cleanup.policy}; may be empty
      * @throws IllegalArgumentException if {@code partitions} is below 1
@@ -96,6 +100,9 @@ public final class TestKafka {
         NewTopic topic = new NewTopic(name, Optional.of(partitions), Optional.empty()).configs(configs);
         try (Admin admin = Admin.create(adminProperties())) {
             admin.createTopics(List.of(topic)).all().get();
+            TopicSetup.awaitLeaders(admin, name, partitions, Duration.ofMillis(LEADER_WAIT_MS));
+        } catch (TimeoutException e) {
+            throw new IllegalStateException("topic " + name + ": " + e.getMessage(), e);
         }
     }
 

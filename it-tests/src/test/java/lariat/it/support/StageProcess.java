@@ -1,4 +1,4 @@
-package lariat.it.faults;
+package lariat.it.support;
 
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
@@ -14,7 +14,7 @@ import java.util.concurrent.TimeUnit;
  * are the operating system's own: SIGKILL ({@link #kill()}), SIGSTOP and SIGCONT ({@link #pause()},
  * {@link #resume()}) and SIGTERM ({@link #close()}).
  */
-final class StageProcess implements AutoCloseable {
+public final class StageProcess implements AutoCloseable {
 
     private static final long WAIT_S = 30;
 
@@ -27,7 +27,7 @@ final class StageProcess implements AutoCloseable {
     }
 
     /** Starts the stage on {@code config}; output is appended to {@code log}. */
-    static StageProcess start(Path config, Path log) throws IOException {
+    public static StageProcess start(Path config, Path log) throws IOException {
         Files.createDirectories(log.toAbsolutePath().getParent());
         List<String> cmd = new ArrayList<>();
         cmd.add(Path.of(System.getProperty("java.home"), "bin", "java").toString());
@@ -47,16 +47,16 @@ final class StageProcess implements AutoCloseable {
         return new StageProcess(p, log);
     }
 
-    long pid() {
+    public long pid() {
         return process.pid();
     }
 
-    boolean alive() {
+    public boolean alive() {
         return process.isAlive();
     }
 
     /** SIGKILL (what {@link Process#destroyForcibly()} sends on Linux); waits for the exit. */
-    void kill() throws InterruptedException {
+    public void kill() throws InterruptedException {
         process.destroyForcibly();
         if (!process.waitFor(WAIT_S, TimeUnit.SECONDS)) {
             throw new IllegalStateException("stage pid " + pid() + " survived SIGKILL for " + WAIT_S + " s");
@@ -64,12 +64,12 @@ final class StageProcess implements AutoCloseable {
     }
 
     /** SIGSTOP: the JVM freezes, every thread included (heartbeats, producer sender). */
-    void pause() throws IOException, InterruptedException {
+    public void pause() throws IOException, InterruptedException {
         signal("-STOP");
     }
 
     /** SIGCONT after {@link #pause()}. */
-    void resume() throws IOException, InterruptedException {
+    public void resume() throws IOException, InterruptedException {
         signal("-CONT");
     }
 
@@ -81,11 +81,11 @@ final class StageProcess implements AutoCloseable {
     }
 
     /** The log so far, for failure messages. */
-    String logText() throws IOException {
+    public String logText() throws IOException {
         return Files.exists(log) ? Files.readString(log, StandardCharsets.UTF_8) : "";
     }
 
-    Path log() {
+    public Path log() {
         return log;
     }
 
