@@ -45,33 +45,49 @@ public final class PathEngine {
 
     /** Relative variance at or below which a column is constant. */
     public static final double CONSTANT_TOLERANCE = 1e-24;
-    /** Relative squared pivot at or below which a joining column is collinear with the active set. */
-    public static final double COLLINEAR_TOLERANCE = 1e-10;
+    /**
+     * The default relative squared pivot at or below which a joining column is collinear with the active
+     * set; {@link PathOptions#collinearTolerance()} sets it per fit.
+     */
+    public static final double COLLINEAR_TOLERANCE = PathOptions.DEFAULT_COLLINEAR_TOLERANCE;
 
     private static final int INACTIVE = 0;
     private static final int ACTIVE = 1;
     private static final int EXCLUDED = 2;
 
     private final int p;
+    /** By column: d_j, c_j = C_xy,j / d_j, β_j (standardized) and the column's status. */
     private final double[] d;
-    private final double[] g;
     private final double[] c;
     private final double[] beta;
+    private final int[] status;
+    /**
+     * Storage positions: active columns in [0, |A|) (in any order), then inactive ones, then (from
+     * {@link #end}) excluded ones.
+     */
+    private final int[] columnAt;
+    private final int[] positionOf;
+    /** By position: current correlations ĉ and a = G_{·A}w (inactive positions only). */
     private final double[] chat;
     private final double[] a;
-    private final double[] q;
-    private final double[] w;
+    /** By active position (order of entry). */
     private final int[] active;
     private final int[] signs;
     private final double[] signValues;
     private final double[] v;
-    private final int[] status;
+    private final double[] q;
+    private final double[] w;
+    private final int[] slotOf;
+    /** Gram rows of the active columns, entries by storage position; allocated on first use. */
+    private final double[][] rows;
+    private final double[] gramColumn;
     private final ActiveCholesky cholesky;
 
     private GramInput in;
     private PathOptions options;
     private List<ExcludedColumn> excluded;
     private int size;
+    private int end;
     private double lambda;
     private double lambdaMax;
     private double directionScale;
@@ -88,18 +104,22 @@ public final class PathEngine {
         }
         this.p = p;
         this.d = new double[p];
-        this.g = new double[p * p];
         this.c = new double[p];
         this.beta = new double[p];
+        this.status = new int[p];
+        this.columnAt = new int[p];
+        this.positionOf = new int[p];
         this.chat = new double[p];
         this.a = new double[p];
-        this.q = new double[p];
-        this.w = new double[p];
         this.active = new int[p];
         this.signs = new int[p];
         this.signValues = new double[p];
         this.v = new double[p];
-        this.status = new int[p];
+        this.q = new double[p];
+        this.w = new double[p];
+        this.slotOf = new int[p];
+        this.rows = new double[p][];
+        this.gramColumn = new double[p];
         this.cholesky = new ActiveCholesky(p);
     }
 
@@ -133,7 +153,6 @@ public final class PathEngine {
     private LassoPath run() {
         reset();
         standardize();
-        recomputeCorrelations();
         lambda = currentLambda();
         lambdaMax = lambda;
         List<Knot> knots = new ArrayList<>(2 * p + 2);
@@ -209,13 +228,23 @@ public final class PathEngine {
         cholesky.clear();
         java.util.Arrays.fill(beta, 0);
         java.util.Arrays.fill(status, INACTIVE);
+        for (int k = 0; k < p; k++) {
+            slotOf[k] = k;
+        }
     }
 
+    /**
+     * The O(p) part of the standardization: d_j, the constant columns, c = D⁻¹C_xy, ĉ = c (β = 0) and the
+     * storage positions (candidates in column order, then the constant columns). Gram rows are built when
+     * their column joins ({@link #buildRow}).
+     */
     private void standardize() {
         double maxDiag = 0;
         for (int j = 0; j < p; j++) {
             maxDiag = Math.max(maxDiag, in.cxx(j, j));
         }
+        int front = 0;
+        int back = p;
         for (int j = 0; j < p; j++) {
             double cjj = in.cxx(j, j);
             double mean = in.meanX(j);
@@ -223,21 +252,52 @@ public final class PathEngine {
                     || cjj <= CONSTANT_TOLERANCE * in.totalWeight() * mean * mean) {
                 status[j] = EXCLUDED;
                 d[j] = 0;
+                c[j] = 0;
                 excluded.add(ExcludedColumn.of(j, ExcludedColumn.Reason.CONSTANT, 0, "C_jj=" + cjj
                         + " (max_k C_kk=" + maxDiag + ", W*mean^2=" + in.totalWeight() * mean * mean + ")"));
+                back--;
+                columnAt[back] = j;
+                positionOf[j] = back;
             } else {
                 d[j] = Math.sqrt(cjj);
+                c[j] = in.cxy(j) / d[j];
+                columnAt[front] = j;
+                positionOf[j] = front;
+                front++;
             }
         }
-        double ridge = options.ridge();
-        for (int i = 0; i < p; i++) {
-            c[i] = status[i] == EXCLUDED ? 0 : in.cxy(i) / d[i];
-            for (int j = 0; j < p; j++) {
-                boolean skip = status[i] == EXCLUDED || status[j] == EXCLUDED;
-                double gij = skip ? 0 : 0.5 * (in.cxx(i, j) + in.cxx(j, i)) / (d[i] * d[j]);
-                g[i * p + j] = i == j && !skip ? 1 + ridge : gij;
+        end = front;
+        java.util.Arrays.sort(columnAt, end, p);
+        for (int k = end; k < p; k++) {
+            positionOf[columnAt[k]] = k;
+        }
+        for (int k = 0; k < p; k++) {
+            chat[k] = c[columnAt[k]];
+        }
+    }
+
+    /**
+     * Writes the standardized Gram row of {@code column} into {@code row} by storage position:
+     * G_jk = ½(C_jk + C_kj)/(d_j d_k), and 1 + λ₂ on the diagonal (entries of excluded columns are 0). The
+     * formula is symmetric in (j, k) bit for bit, so G_{A,j} can be read from the rows of the active
+     * columns. When C_xx is exactly symmetric, C_kj is C_jk and only row j of C_xx is read.
+     */
+    private void buildRow(int column, double[] row) {
+        double[] cxx = in.cxxShared();
+        int offset = column * p;
+        double dj = d[column];
+        if (in.exactlySymmetric()) {
+            for (int k = 0; k < p; k++) {
+                double x = cxx[offset + k];
+                row[positionOf[k]] = status[k] == EXCLUDED ? 0 : 0.5 * (x + x) / (dj * d[k]);
+            }
+        } else {
+            for (int k = 0; k < p; k++) {
+                row[positionOf[k]] = status[k] == EXCLUDED ? 0
+                        : 0.5 * (cxx[offset + k] + cxx[k * p + column]) / (dj * d[k]);
             }
         }
+        row[positionOf[column]] = 1 + options.ridge();
     }
 
     private boolean responseIsConstant() {
@@ -245,79 +305,108 @@ public final class PathEngine {
         return cyy <= 0 || cyy <= CONSTANT_TOLERANCE * in.totalWeight() * in.meanY() * in.meanY();
     }
 
-    /**
-     * ĉ = c − (G + λ₂I)β exactly, as |A| passes over contiguous rows of G (G is symmetric, row A_k is column
-     * A_k); entries of excluded columns are not meaningful. Only the start uses it: β = 0 there, so ĉ = c.
-     */
-    private void recomputeCorrelations() {
-        System.arraycopy(c, 0, chat, 0, p);
-        for (int k = 0; k < size; k++) {
-            int column = active[k];
-            axpy(-beta[column], column * p, chat);
-        }
-    }
-
-    /** y_j += alpha·G[offset + j] for every j. */
-    private void axpy(double alpha, int offset, double[] y) {
-        for (int j = 0; j < p; j++) {
-            y[j] += alpha * g[offset + j];
-        }
-    }
-
+    /** λ = max |ĉ_j| (positive variant: max ĉ_j) over the candidate (active and inactive) columns. */
     private double currentLambda() {
         double max = 0;
-        for (int j = 0; j < p; j++) {
-            if (status[j] != EXCLUDED) {
-                max = Math.max(max, options.positive() ? chat[j] : Math.abs(chat[j]));
-            }
+        for (int k = 0; k < end; k++) {
+            max = Math.max(max, options.positive() ? chat[k] : Math.abs(chat[k]));
         }
         return max;
     }
 
     /** The inactive column with the largest (absolute, unless positive) correlation; probes it. */
     private int firstEntrant() {
-        int best = -1;
-        double bestValue = 0;
-        for (int j = 0; j < p; j++) {
-            double v = options.positive() ? chat[j] : Math.abs(chat[j]);
-            if (status[j] == INACTIVE && v > bestValue) {
-                best = j;
-                bestValue = v;
+        while (true) {
+            int best = -1;
+            double bestValue = 0;
+            for (int k = size; k < end; k++) {
+                double value = options.positive() ? chat[k] : Math.abs(chat[k]);
+                int column = columnAt[k];
+                if (value > bestValue || (value == bestValue && best >= 0 && column < best)) {
+                    best = column;
+                    bestValue = value;
+                }
             }
-        }
-        if (best >= 0 && isCollinear(best)) {
+            if (best < 0 || !isCollinear(best)) {
+                return best;
+            }
             exclude(best);
-            return firstEntrant();
         }
-        return best;
     }
 
+    /** Probes {@code column} against the active set (G_{A,j} read from the active rows). */
     private boolean isCollinear(int column) {
-        double pivotSquared = cholesky.probe(g, p, active, column);
-        return !(pivotSquared > COLLINEAR_TOLERANCE * g[column * p + column]);
+        int position = positionOf[column];
+        for (int k = 0; k < size; k++) {
+            gramColumn[k] = rows[slotOf[k]][position];
+        }
+        double diagonal = 1 + options.ridge();
+        double pivotSquared = cholesky.probe(gramColumn, diagonal, column);
+        return !(pivotSquared > options.collinearTolerance() * diagonal);
     }
 
+    /** Sets aside {@code column}, just probed by {@link #isCollinear}, moving it to the excluded positions. */
     private void exclude(int column) {
-        double pivotSquared = cholesky.probe(g, p, active, column);
+        double pivotSquared = cholesky.lastPivotSquared();
         status[column] = EXCLUDED;
         collinearFound = true;
+        int[] act = java.util.Arrays.copyOf(active, size);
         excluded.add(ExcludedColumn.of(column, ExcludedColumn.Reason.COLLINEAR, currentStep, "squared pivot "
-                + pivotSquared + " <= " + COLLINEAR_TOLERANCE + " * G_jj=" + g[column * p + column]
-                + " against active columns " + java.util.Arrays.toString(java.util.Arrays.copyOf(active, size))));
+                + pivotSquared + " <= " + options.collinearTolerance() + " * G_jj=" + (1 + options.ridge())
+                + " against active columns " + java.util.Arrays.toString(act)));
+        swapPositions(positionOf[column], end - 1);
+        end--;
     }
 
+    /** Exchanges storage positions x and y in the position arrays and in every active row. */
+    private void swapPositions(int x, int y) {
+        if (x == y) {
+            return;
+        }
+        int cx = columnAt[x];
+        int cy = columnAt[y];
+        columnAt[x] = cy;
+        columnAt[y] = cx;
+        positionOf[cx] = y;
+        positionOf[cy] = x;
+        double t = chat[x];
+        chat[x] = chat[y];
+        chat[y] = t;
+        t = a[x];
+        a[x] = a[y];
+        a[y] = t;
+        for (int k = 0; k < size; k++) {
+            double[] row = rows[slotOf[k]];
+            t = row[x];
+            row[x] = row[y];
+            row[y] = t;
+        }
+    }
+
+    /** Commits the last probe of {@code column}, moves it to position |A| and builds its Gram row. */
     private void addActive(int column) {
         cholesky.commit(column);
+        swapPositions(positionOf[column], size);
+        int slot = slotOf[size];
+        if (rows[slot] == null) {
+            rows[slot] = new double[p];
+        }
+        buildRow(column, rows[slot]);
         active[size] = column;
-        signs[size] = options.positive() || chat[column] >= 0 ? 1 : -1;
+        signs[size] = options.positive() || chat[size] >= 0 ? 1 : -1;
         signValues[size] = signs[size];
         status[column] = ACTIVE;
         size++;
     }
 
+    /** Removes active position {@code position}; its column moves to the first inactive storage position. */
     private void removeActive(int position) {
         int column = active[position];
         cholesky.remove(position);
+        swapPositions(positionOf[column], size - 1);
+        int slot = slotOf[position];
+        System.arraycopy(slotOf, position + 1, slotOf, position, size - position - 1);
+        slotOf[size - 1] = slot;
         System.arraycopy(active, position + 1, active, position, size - position - 1);
         System.arraycopy(signs, position + 1, signs, position, size - position - 1);
         System.arraycopy(signValues, position + 1, signValues, position, size - position - 1);
@@ -330,6 +419,7 @@ public final class PathEngine {
     /**
      * Takes one step. Returns the column that will join at the new knot, or −1; leaves {@link #dropPosition}
      * ≥ 0 when an active coefficient reached zero instead, and both negative when the step was the capped one.
+     * Inactive correlations move by −γa_j; active ones by −γA_A s_j, their exact change (G_AA w = A_A s_A).
      */
     private int advance(int justLeft) {
         direction();
@@ -340,24 +430,31 @@ public final class PathEngine {
         if (hitter >= 0 || !(drop < cap)) {
             dropPosition = -1;
         }
+        double activeStep = gamma * directionScale;
         for (int k = 0; k < size; k++) {
             beta[active[k]] += gamma * w[k];
+            chat[positionOf[active[k]]] -= activeStep * signValues[k];
         }
-        for (int j = 0; j < p; j++) {
+        for (int j = size; j < end; j++) {
             chat[j] -= gamma * a[j];
         }
         if (dropPosition >= 0) {
             int column = active[dropPosition];
-            axpy(beta[column], column * p, chat);
+            double b = beta[column];
+            double[] row = rows[slotOf[dropPosition]];
+            for (int j = 0; j < end; j++) {
+                chat[j] += b * row[j];
+            }
             beta[column] = 0;
         }
         return hitter;
     }
 
     /**
-     * Fills q, w (by active position), A_A and a = G_{·A}w. With v = L⁻¹s_A (kept across steps: one new
-     * entry per joining column, entries from the dropped position on after a drop), s_AᵀG_AA⁻¹s_A = ‖v‖², so
-     * A_A = 1/‖v‖ and q = L⁻ᵀv. a is built as |A| axpy passes over contiguous rows of G, four at a time.
+     * Fills q, w (by active position), A_A and a = G_{I,A}w over the inactive positions I. With v = L⁻¹s_A
+     * (kept across steps: one new entry per joining column, entries from the dropped position on after a
+     * drop), s_AᵀG_AA⁻¹s_A = ‖v‖², so A_A = 1/‖v‖ and q = L⁻ᵀv. a is built from the row tails of the active
+     * columns, four rows per pass: a_j = fma(w₃, ·, fma(w₂, ·, fma(w₁, ·, fma(w₀, ·, a_j)))).
      */
     private void direction() {
         cholesky.forward(signValues, v, vSolved);
@@ -372,23 +469,29 @@ public final class PathEngine {
         for (int k = 0; k < size; k++) {
             w[k] = directionScale * q[k];
         }
-        java.util.Arrays.fill(a, 0);
+        int lo = size;
+        int hi = end;
+        java.util.Arrays.fill(a, lo, hi, 0);
         int k = 0;
         for (; k + 3 < size; k += 4) {
             double w0 = w[k];
             double w1 = w[k + 1];
             double w2 = w[k + 2];
             double w3 = w[k + 3];
-            int r0 = active[k] * p;
-            int r1 = active[k + 1] * p;
-            int r2 = active[k + 2] * p;
-            int r3 = active[k + 3] * p;
-            for (int j = 0; j < p; j++) {
-                a[j] += w0 * g[r0 + j] + w1 * g[r1 + j] + w2 * g[r2 + j] + w3 * g[r3 + j];
+            double[] r0 = rows[slotOf[k]];
+            double[] r1 = rows[slotOf[k + 1]];
+            double[] r2 = rows[slotOf[k + 2]];
+            double[] r3 = rows[slotOf[k + 3]];
+            for (int j = lo; j < hi; j++) {
+                a[j] = Math.fma(w3, r3[j], Math.fma(w2, r2[j], Math.fma(w1, r1[j], Math.fma(w0, r0[j], a[j]))));
             }
         }
         for (; k < size; k++) {
-            axpy(w[k], active[k] * p, a);
+            double w0 = w[k];
+            double[] r0 = rows[slotOf[k]];
+            for (int j = lo; j < hi; j++) {
+                a[j] = Math.fma(w0, r0[j], a[j]);
+            }
         }
     }
 
@@ -407,20 +510,20 @@ public final class PathEngine {
     }
 
     /**
-     * The inactive column whose correlation reaches the active level first, strictly before {@code limit};
-     * collinear candidates found on the way are excluded. Sets {@link #hitStep}. Returns −1 if none.
+     * The inactive column whose correlation reaches the active level first, strictly before {@code limit}
+     * (equal steps: the lowest column index); collinear candidates found on the way are excluded. Sets
+     * {@link #hitStep}. Returns −1 if none.
      */
     private int hitter(double limit, int justLeft) {
         while (true) {
             int best = -1;
             double bestStep = limit;
-            for (int j = 0; j < p; j++) {
-                if (status[j] == INACTIVE) {
-                    double gj = entryStep(j, j == justLeft);
-                    if (gj < bestStep) {
-                        best = j;
-                        bestStep = gj;
-                    }
+            for (int j = size; j < end; j++) {
+                int column = columnAt[j];
+                double gj = entryStep(j, column == justLeft);
+                if (gj < bestStep || (gj == bestStep && best >= 0 && column < best)) {
+                    best = column;
+                    bestStep = gj;
                 }
             }
             if (best < 0 || !isCollinear(best)) {
@@ -432,8 +535,8 @@ public final class PathEngine {
     }
 
     /**
-     * γ at which inactive column j reaches ±λ; for the column that just left, the branch it left from is
-     * skipped (its numerator is zero there, the column would re-enter at once).
+     * γ at which the inactive column at storage position j reaches ±λ; for the column that just left, the
+     * branch it left from is skipped (its numerator is zero there, the column would re-enter at once).
      */
     private double entryStep(int j, boolean justLeft) {
         double cj = chat[j];
@@ -459,23 +562,32 @@ public final class PathEngine {
      */
     private StopReason endReason() {
         boolean rank = collinearFound;
-        for (int j = 0; j < p && !rank; j++) {
-            rank = status[j] == INACTIVE && isCollinear(j);
+        for (int j = size; j < end && !rank; j++) {
+            rank = isCollinear(columnAt[j]);
         }
         return rank ? StopReason.RANK : StopReason.COMPLETE;
     }
 
+    /**
+     * The knot at the current state. Only active columns have nonzero coefficients; the intercept
+     * μ_y − Σ μ_j β_raw,j sums over them in order of entry.
+     */
     private Knot knot(int step, int entered, int left) {
         int[] act = java.util.Arrays.copyOf(active, size);
         int[] sg = java.util.Arrays.copyOf(signs, size);
-        double[] std = beta.clone();
+        double[] std = new double[p];
         double[] raw = new double[p];
         double intercept = in.meanY();
         int df = 0;
-        for (int j = 0; j < p; j++) {
-            raw[j] = std[j] == 0 ? 0 : std[j] / d[j];
-            intercept -= in.meanX(j) * raw[j];
-            df += std[j] != 0 ? 1 : 0;
+        for (int k = 0; k < size; k++) {
+            int j = active[k];
+            double b = beta[j];
+            if (b != 0) {
+                std[j] = b;
+                raw[j] = b / d[j];
+                intercept -= in.meanX(j) * raw[j];
+                df++;
+            }
         }
         double rss = residualSumOfSquares();
         double r2 = in.cyy() > 0 ? 1 - rss / in.cyy() : 0;
@@ -494,7 +606,7 @@ public final class PathEngine {
         double rss = in.cyy();
         for (int k = 0; k < size; k++) {
             int i = active[k];
-            rss -= beta[i] * (c[i] + chat[i] + ridge * beta[i]);
+            rss -= beta[i] * (c[i] + chat[positionOf[i]] + ridge * beta[i]);
         }
         return Math.max(rss, 0);
     }
