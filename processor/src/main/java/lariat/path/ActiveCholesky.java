@@ -30,6 +30,8 @@ final class ActiveCholesky {
     /** byColumn[k][i] = L_ik for i ≥ k. */
     private final double[][] byColumn;
     private final double[] probeRow;
+    private final double[] rotationCos;
+    private final double[] rotationSin;
     private int size;
     private int probeColumn = -1;
     private double probePivotSquared;
@@ -39,6 +41,8 @@ final class ActiveCholesky {
         this.byRow = new double[capacity][];
         this.byColumn = new double[capacity][];
         this.probeRow = new double[capacity];
+        this.rotationCos = new double[capacity];
+        this.rotationSin = new double[capacity];
     }
 
     void clear() {
@@ -81,23 +85,45 @@ final class ActiveCholesky {
         if (probeColumn != column || !(probePivotSquared > 0)) {
             throw new IllegalStateException("no positive probe for column " + column);
         }
+        join(probeRow, probePivotSquared);
+    }
+
+    /**
+     * Appends the row (l, sqrt(pivotSquared)) with l = L⁻¹G_{A,j} computed by the caller.
+     *
+     * @param row          l, first {@link #size()} entries used (read only)
+     * @param pivotSquared G_jj − ‖l‖², &gt; 0
+     */
+    void join(double[] row, double pivotSquared) {
+        if (!(pivotSquared > 0)) {
+            throw new IllegalArgumentException("pivotSquared must be > 0, was " + pivotSquared);
+        }
         int m = size;
         if (byRow[m] == null) {
             byRow[m] = new double[capacity];
             byColumn[m] = new double[capacity];
         }
-        double[] row = byRow[m];
-        System.arraycopy(probeRow, 0, row, 0, m);
-        row[m] = Math.sqrt(probePivotSquared);
+        double[] target = byRow[m];
+        System.arraycopy(row, 0, target, 0, m);
+        target[m] = Math.sqrt(pivotSquared);
         for (int i = 0; i < m; i++) {
-            byColumn[i][m] = probeRow[i];
+            byColumn[i][m] = row[i];
         }
-        byColumn[m][m] = row[m];
+        byColumn[m][m] = target[m];
         size++;
         probeColumn = -1;
     }
 
-    /** Removes active position {@code k}, restoring the triangle with Givens rotations. */
+    /** L_ik, for k ≤ i &lt; {@link #size()}. */
+    double entry(int i, int k) {
+        return byRow[i][k];
+    }
+
+    /**
+     * Removes active position {@code k}, restoring the triangle with Givens rotations; rotation i (of
+     * columns i and i+1, i = k … size−1 after the removal) is kept as {@link #rotationCos(int)},
+     * {@link #rotationSin(int)}: [x, y] ← [c·x + s·y, −s·x + c·y].
+     */
     void remove(int k) {
         int m = size;
         double[] freed = byRow[k];
@@ -125,6 +151,8 @@ final class ActiveCholesky {
         double r = Math.hypot(a, b);
         double c = a / r;
         double s = b / r;
+        rotationCos[i] = c;
+        rotationSin[i] = s;
         for (int row = i; row < size; row++) {
             double x = left[row];
             double y = right[row];
@@ -138,6 +166,16 @@ final class ActiveCholesky {
         }
         right[i] = 0;
         byRow[i][i + 1] = 0;
+    }
+
+    /** Cosine of rotation i of the last {@link #remove(int)}. */
+    double rotationCos(int i) {
+        return rotationCos[i];
+    }
+
+    /** Sine of rotation i of the last {@link #remove(int)}. */
+    double rotationSin(int i) {
+        return rotationSin[i];
     }
 
     /**

@@ -77,10 +77,16 @@ public final class PathEngine {
     private final double[] v;
     private final double[] q;
     private final double[] w;
-    private final int[] slotOf;
-    /** Gram rows of the active columns, entries by storage position; allocated on first use. */
+    /**
+     * rows[k][j] = (L⁻¹G_{A,·})_k at inactive storage position j: row k of the active rows of a Cholesky
+     * factorization of the whole Gram matrix in storage order (the part right of Lᵀ). Allocated on first use.
+     */
     private final double[][] rows;
+    /** l = L⁻¹G_{A,j} of the last probed column, then of the column that joined last. */
     private final double[] gramColumn;
+    private final double[] pendingRow;
+    private final double[] gramRow;
+    private final double[] partial;
     private final ActiveCholesky cholesky;
 
     private GramInput in;
@@ -96,6 +102,9 @@ public final class PathEngine {
     private boolean collinearFound;
     private int currentStep;
     private int vSolved;
+    private int probedColumn;
+    private double probedPivotSquared;
+    private boolean pendingJoin;
 
     /** @param p number of predictor columns of every input this engine will fit, ≥ 1 */
     public PathEngine(int p) {
@@ -117,9 +126,11 @@ public final class PathEngine {
         this.v = new double[p];
         this.q = new double[p];
         this.w = new double[p];
-        this.slotOf = new int[p];
         this.rows = new double[p][];
         this.gramColumn = new double[p];
+        this.pendingRow = new double[p];
+        this.gramRow = new double[p];
+        this.partial = new double[p];
         this.cholesky = new ActiveCholesky(p);
     }
 
@@ -228,9 +239,8 @@ public final class PathEngine {
         cholesky.clear();
         java.util.Arrays.fill(beta, 0);
         java.util.Arrays.fill(status, INACTIVE);
-        for (int k = 0; k < p; k++) {
-            slotOf[k] = k;
-        }
+        probedColumn = -1;
+        pendingJoin = false;
     }
 
     /**
@@ -334,20 +344,30 @@ public final class PathEngine {
         }
     }
 
-    /** Probes {@code column} against the active set (G_{A,j} read from the active rows). */
+    /**
+     * Probes {@code column} against the active set: l = L⁻¹G_{A,j} is column j of the active rows, and the
+     * squared pivot is G_jj − ‖l‖².
+     */
     private boolean isCollinear(int column) {
+        if (pendingJoin) {
+            throw new IllegalStateException("probe of column " + column + " before the row of the last join");
+        }
         int position = positionOf[column];
+        double norm = 0;
         for (int k = 0; k < size; k++) {
-            gramColumn[k] = rows[slotOf[k]][position];
+            double x = rows[k][position];
+            gramColumn[k] = x;
+            norm += x * x;
         }
         double diagonal = 1 + options.ridge();
-        double pivotSquared = cholesky.probe(gramColumn, diagonal, column);
-        return !(pivotSquared > options.collinearTolerance() * diagonal);
+        probedColumn = column;
+        probedPivotSquared = diagonal - norm;
+        return !(probedPivotSquared > options.collinearTolerance() * diagonal);
     }
 
     /** Sets aside {@code column}, just probed by {@link #isCollinear}, moving it to the excluded positions. */
     private void exclude(int column) {
-        double pivotSquared = cholesky.lastPivotSquared();
+        double pivotSquared = probedPivotSquared;
         status[column] = EXCLUDED;
         collinearFound = true;
         int[] act = java.util.Arrays.copyOf(active, size);
@@ -376,22 +396,26 @@ public final class PathEngine {
         a[x] = a[y];
         a[y] = t;
         for (int k = 0; k < size; k++) {
-            double[] row = rows[slotOf[k]];
+            double[] row = rows[k];
             t = row[x];
             row[x] = row[y];
             row[y] = t;
         }
     }
 
-    /** Commits the last probe of {@code column}, moves it to position |A| and builds its Gram row. */
+    /**
+     * Appends the last probe of {@code column} to L and moves the column to position |A|; its row of
+     * {@link #rows} is built by the next {@link #direction()}, in the same pass that computes a.
+     */
     private void addActive(int column) {
-        cholesky.commit(column);
-        swapPositions(positionOf[column], size);
-        int slot = slotOf[size];
-        if (rows[slot] == null) {
-            rows[slot] = new double[p];
+        if (probedColumn != column || !(probedPivotSquared > 0)) {
+            throw new IllegalStateException("no positive probe for column " + column);
         }
-        buildRow(column, rows[slot]);
+        cholesky.join(gramColumn, probedPivotSquared);
+        System.arraycopy(gramColumn, 0, pendingRow, 0, size);
+        pendingJoin = true;
+        probedColumn = -1;
+        swapPositions(positionOf[column], size);
         active[size] = column;
         signs[size] = options.positive() || chat[size] >= 0 ? 1 : -1;
         signValues[size] = signs[size];
@@ -399,14 +423,34 @@ public final class PathEngine {
         size++;
     }
 
-    /** Removes active position {@code position}; its column moves to the first inactive storage position. */
+    /**
+     * Removes active position {@code position}; its column moves to the first inactive storage position j.
+     * Since G_{A,j} = L·(row k of L)ᵀ, column j of the active rows becomes row k of L; then the Givens
+     * rotations that restore L (see {@link ActiveCholesky#remove(int)}) are applied to the pairs of active
+     * rows (i, i+1), i = k … |A|−2, over the inactive positions: with L_{−k}Q = [L' 0],
+     * G_{A',·} = L'·(first |A|−1 rows of QᵀL⁻¹G_{A,·}).
+     */
     private void removeActive(int position) {
         int column = active[position];
+        int m = size;
+        int j0 = m - 1;
+        swapPositions(positionOf[column], j0);
+        for (int i = 0; i < m; i++) {
+            rows[i][j0] = i <= position ? cholesky.entry(position, i) : 0;
+        }
         cholesky.remove(position);
-        swapPositions(positionOf[column], size - 1);
-        int slot = slotOf[position];
-        System.arraycopy(slotOf, position + 1, slotOf, position, size - position - 1);
-        slotOf[size - 1] = slot;
+        for (int i = position; i < m - 1; i++) {
+            double cs = cholesky.rotationCos(i);
+            double sn = cholesky.rotationSin(i);
+            double[] upper = rows[i];
+            double[] lower = rows[i + 1];
+            for (int j = j0; j < end; j++) {
+                double x = upper[j];
+                double y = lower[j];
+                upper[j] = cs * x + sn * y;
+                lower[j] = -sn * x + cs * y;
+            }
+        }
         System.arraycopy(active, position + 1, active, position, size - position - 1);
         System.arraycopy(signs, position + 1, signs, position, size - position - 1);
         System.arraycopy(signValues, position + 1, signValues, position, size - position - 1);
@@ -441,9 +485,9 @@ public final class PathEngine {
         if (dropPosition >= 0) {
             int column = active[dropPosition];
             double b = beta[column];
-            double[] row = rows[slotOf[dropPosition]];
+            buildRow(column, gramRow);
             for (int j = 0; j < end; j++) {
-                chat[j] += b * row[j];
+                chat[j] += b * gramRow[j];
             }
             beta[column] = 0;
         }
@@ -453,8 +497,9 @@ public final class PathEngine {
     /**
      * Fills q, w (by active position), A_A and a = G_{I,A}w over the inactive positions I. With v = L⁻¹s_A
      * (kept across steps: one new entry per joining column, entries from the dropped position on after a
-     * drop), s_AᵀG_AA⁻¹s_A = ‖v‖², so A_A = 1/‖v‖ and q = L⁻ᵀv. a is built from the row tails of the active
-     * columns, four rows per pass: a_j = fma(w₃, ·, fma(w₂, ·, fma(w₁, ·, fma(w₀, ·, a_j)))).
+     * drop), s_AᵀG_AA⁻¹s_A = ‖v‖², so A_A = 1/‖v‖ and q = L⁻ᵀv. Since G_{A,I} = L·R_I with R = {@link #rows},
+     * a = A_A·R_Iᵀv, built four rows per pass: a_j = fma(u₃, ·, fma(u₂, ·, fma(u₁, ·, fma(u₀, ·, a_j)))) with
+     * u_k = A_A v_k; no back solve is needed for a.
      */
     private void direction() {
         cholesky.forward(signValues, v, vSolved);
@@ -472,27 +517,88 @@ public final class PathEngine {
         int lo = size;
         int hi = end;
         java.util.Arrays.fill(a, lo, hi, 0);
+        if (pendingJoin) {
+            directionWithJoin(lo, hi);
+            return;
+        }
         int k = 0;
         for (; k + 3 < size; k += 4) {
-            double w0 = w[k];
-            double w1 = w[k + 1];
-            double w2 = w[k + 2];
-            double w3 = w[k + 3];
-            double[] r0 = rows[slotOf[k]];
-            double[] r1 = rows[slotOf[k + 1]];
-            double[] r2 = rows[slotOf[k + 2]];
-            double[] r3 = rows[slotOf[k + 3]];
+            double v0 = directionScale * v[k];
+            double v1 = directionScale * v[k + 1];
+            double v2 = directionScale * v[k + 2];
+            double v3 = directionScale * v[k + 3];
+            double[] r0 = rows[k];
+            double[] r1 = rows[k + 1];
+            double[] r2 = rows[k + 2];
+            double[] r3 = rows[k + 3];
             for (int j = lo; j < hi; j++) {
-                a[j] = Math.fma(w3, r3[j], Math.fma(w2, r2[j], Math.fma(w1, r1[j], Math.fma(w0, r0[j], a[j]))));
+                a[j] = Math.fma(v3, r3[j], Math.fma(v2, r2[j], Math.fma(v1, r1[j], Math.fma(v0, r0[j], a[j]))));
             }
         }
         for (; k < size; k++) {
-            double w0 = w[k];
-            double[] r0 = rows[slotOf[k]];
+            double v0 = directionScale * v[k];
+            double[] r0 = rows[k];
             for (int j = lo; j < hi; j++) {
-                a[j] = Math.fma(w0, r0[j], a[j]);
+                a[j] = Math.fma(v0, r0[j], a[j]);
             }
         }
+    }
+
+    /**
+     * The pass of {@link #direction()} after a join at active position n = |A| − 1: one sweep over rows
+     * 0 … n−1 accumulates both t = Σ_k l_k·rows[k] (l = L⁻¹G_{A,j} of the joining column j, saved at the
+     * join) and Σ_k A_A v_k·rows[k]; then the new row is (G_{j,·} − t)/L_nn, the next row of the Cholesky
+     * factorization, and a gets its last term.
+     */
+    private void directionWithJoin(int lo, int hi) {
+        int n = size - 1;
+        if (rows[n] == null) {
+            rows[n] = new double[p];
+        }
+        java.util.Arrays.fill(partial, lo, hi, 0);
+        int k = 0;
+        for (; k + 3 < n; k += 4) {
+            double v0 = directionScale * v[k];
+            double v1 = directionScale * v[k + 1];
+            double v2 = directionScale * v[k + 2];
+            double v3 = directionScale * v[k + 3];
+            double l0 = pendingRow[k];
+            double l1 = pendingRow[k + 1];
+            double l2 = pendingRow[k + 2];
+            double l3 = pendingRow[k + 3];
+            double[] r0 = rows[k];
+            double[] r1 = rows[k + 1];
+            double[] r2 = rows[k + 2];
+            double[] r3 = rows[k + 3];
+            for (int j = lo; j < hi; j++) {
+                double x0 = r0[j];
+                double x1 = r1[j];
+                double x2 = r2[j];
+                double x3 = r3[j];
+                a[j] = Math.fma(v3, x3, Math.fma(v2, x2, Math.fma(v1, x1, Math.fma(v0, x0, a[j]))));
+                partial[j] = Math.fma(l3, x3, Math.fma(l2, x2, Math.fma(l1, x1, Math.fma(l0, x0, partial[j]))));
+            }
+        }
+        for (; k < n; k++) {
+            double v0 = directionScale * v[k];
+            double l0 = pendingRow[k];
+            double[] r0 = rows[k];
+            for (int j = lo; j < hi; j++) {
+                double x0 = r0[j];
+                a[j] = Math.fma(v0, x0, a[j]);
+                partial[j] = Math.fma(l0, x0, partial[j]);
+            }
+        }
+        buildRow(active[n], gramRow);
+        double pivot = cholesky.entry(n, n);
+        double vn = directionScale * v[n];
+        double[] rn = rows[n];
+        for (int j = lo; j < hi; j++) {
+            double z = (gramRow[j] - partial[j]) / pivot;
+            rn[j] = z;
+            a[j] = Math.fma(vn, z, a[j]);
+        }
+        pendingJoin = false;
     }
 
     /** Smallest positive γ at which an active coefficient reaches zero; sets {@link #dropPosition}. */
