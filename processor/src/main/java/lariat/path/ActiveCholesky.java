@@ -11,24 +11,20 @@ package lariat.path;
  * change instead of O(m³) for a refactorization (the standard updating technique; see e.g. Gill, Golub,
  * Murray and Saunders, "Methods for modifying matrix factorizations", Math. Comp. 28, 1974).
  *
- * <p>Storage: L is kept twice, by rows and by columns, each row or column in its own array, so that both
- * triangular solves run in column-oriented (axpy) form over contiguous memory: the forward solve L x = b
- * subtracts x_j·L_{·j} (a column) from the entries after j, the back solve Lᵀ x = b subtracts x_i·L_{i·}
- * (a row) from the entries before i. Four columns (rows) are applied per pass, each entry updated as
- * {@code fma(−x₃, ·, fma(−x₂, ·, fma(−x₁, ·, fma(−x₀, ·, e))))} in that order; {@link Math#fma} is exactly
- * rounded, so the results are the same bits on every machine. Every change writes the same computed values
- * into both copies, so they stay exact transposes of each other.
- *
- * <p>Row and column arrays are allocated when the factor first grows to them and reused afterwards;
- * otherwise no method allocates.
+ * <p>Storage: L by rows, each row in its own array (allocated when the factor first grows to it, reused
+ * afterwards; otherwise no method allocates). The back solve Lᵀ x = b, run once per path step, is in
+ * column-oriented (axpy) form over these rows: once x_i … x_{i−3} are known, rows i … i−3 are subtracted from
+ * the entries before them in one pass, each entry updated as
+ * {@code fma(−x₃, ·, fma(−x₂, ·, fma(−x₁, ·, fma(−x₀, ·, e))))} in that order ({@link Math#fma} is exactly
+ * rounded, so the results are the same bits on every machine). The forward solve, needed only for single
+ * new entries and after a removal, is in dot-product form over the same rows. One copy of L keeps the
+ * working set small (for large active sets the solves are bound by memory traffic, not arithmetic).
  */
 final class ActiveCholesky {
 
     private final int capacity;
     /** byRow[i][k] = L_ik for k ≤ i (k = i + 1 only transiently during a removal). */
     private final double[][] byRow;
-    /** byColumn[k][i] = L_ik for i ≥ k. */
-    private final double[][] byColumn;
     private final double[] probeRow;
     private final double[] rotationCos;
     private final double[] rotationSin;
@@ -39,7 +35,6 @@ final class ActiveCholesky {
     ActiveCholesky(int capacity) {
         this.capacity = capacity;
         this.byRow = new double[capacity][];
-        this.byColumn = new double[capacity][];
         this.probeRow = new double[capacity];
         this.rotationCos = new double[capacity];
         this.rotationSin = new double[capacity];
@@ -64,8 +59,7 @@ final class ActiveCholesky {
      *         active columns, for a correlation matrix 1 − R²_j)
      */
     double probe(double[] gramColumn, double diagonal, int column) {
-        System.arraycopy(gramColumn, 0, probeRow, 0, size);
-        solveForward(probeRow, 0);
+        forward(gramColumn, probeRow, 0);
         double norm = 0;
         for (int i = 0; i < size; i++) {
             norm += probeRow[i] * probeRow[i];
@@ -101,15 +95,10 @@ final class ActiveCholesky {
         int m = size;
         if (byRow[m] == null) {
             byRow[m] = new double[capacity];
-            byColumn[m] = new double[capacity];
         }
         double[] target = byRow[m];
         System.arraycopy(row, 0, target, 0, m);
         target[m] = Math.sqrt(pivotSquared);
-        for (int i = 0; i < m; i++) {
-            byColumn[i][m] = row[i];
-        }
-        byColumn[m][m] = target[m];
         size++;
         probeColumn = -1;
     }
@@ -129,12 +118,6 @@ final class ActiveCholesky {
         double[] freed = byRow[k];
         System.arraycopy(byRow, k + 1, byRow, k, m - 1 - k);
         byRow[m - 1] = freed;
-        for (int r = 0; r <= k; r++) {
-            System.arraycopy(byColumn[r], k + 1, byColumn[r], k, m - 1 - k);
-        }
-        for (int r = k + 1; r < m; r++) {
-            System.arraycopy(byColumn[r], r, byColumn[r], r - 1, m - r);
-        }
         size = m - 1;
         for (int i = k; i < size; i++) {
             rotateColumns(i);
@@ -142,29 +125,22 @@ final class ActiveCholesky {
         probeColumn = -1;
     }
 
-    /** Zeroes entry (i, i+1) by rotating columns i and i+1 of rows i … size−1, in both copies. */
+    /** Zeroes entry (i, i+1) by rotating columns i and i+1 of rows i … size−1. */
     private void rotateColumns(int i) {
-        double[] left = byColumn[i];
-        double[] right = byColumn[i + 1];
-        double a = left[i];
-        double b = right[i];
+        double a = byRow[i][i];
+        double b = byRow[i][i + 1];
         double r = Math.hypot(a, b);
         double c = a / r;
         double s = b / r;
         rotationCos[i] = c;
         rotationSin[i] = s;
         for (int row = i; row < size; row++) {
-            double x = left[row];
-            double y = right[row];
-            double nx = c * x + s * y;
-            double ny = -s * x + c * y;
-            left[row] = nx;
-            right[row] = ny;
             double[] lr = byRow[row];
-            lr[i] = nx;
-            lr[i + 1] = ny;
+            double x = lr[i];
+            double y = lr[i + 1];
+            lr[i] = c * x + s * y;
+            lr[i + 1] = -s * x + c * y;
         }
-        right[i] = 0;
         byRow[i][i + 1] = 0;
     }
 
@@ -192,73 +168,11 @@ final class ActiveCholesky {
      * {@code x} as already solved (row i of the forward solve reads only x_0 … x_{i−1}). Modifies {@code x};
      * {@code b} is read only and may be the same array as {@code x}. After {@link #remove(int)} of position
      * k, rows 0 … k−1 of L are unchanged, so a solution of the old factor stays valid for entries below k.
-     * One new entry (from = size − 1) is a dot product with the last row; otherwise the solved entries are
-     * first subtracted column by column, then the rest is solved in column-oriented form.
      */
     void forward(double[] b, double[] x, int from) {
-        int m = size;
-        if (from >= m) {
-            return;
-        }
-        if (from == m - 1) {
-            double[] row = byRow[from];
-            x[from] = (b[from] - dot(row, x, from)) / row[from];
-            return;
-        }
-        if (b != x) {
-            System.arraycopy(b, from, x, from, m - from);
-        }
-        int j = 0;
-        for (; j + 3 < from; j += 4) {
-            subtractColumns(x, j, x[j], x[j + 1], x[j + 2], x[j + 3], from, m);
-        }
-        for (; j < from; j++) {
-            subtractColumn(x, j, x[j], from, m);
-        }
-        solveForward(x, from);
-    }
-
-    /** Column-oriented forward solve of entries from … size−1 of x in place, entries before from known. */
-    private void solveForward(double[] x, int from) {
-        int m = size;
-        int j = from;
-        for (; j + 3 < m; j += 4) {
-            double[] c0 = byColumn[j];
-            double[] c1 = byColumn[j + 1];
-            double[] c2 = byColumn[j + 2];
-            double[] c3 = byColumn[j + 3];
-            double x0 = x[j] / c0[j];
-            double x1 = (x[j + 1] - c0[j + 1] * x0) / c1[j + 1];
-            double x2 = (x[j + 2] - c0[j + 2] * x0 - c1[j + 2] * x1) / c2[j + 2];
-            double x3 = (x[j + 3] - c0[j + 3] * x0 - c1[j + 3] * x1 - c2[j + 3] * x2) / c3[j + 3];
-            x[j] = x0;
-            x[j + 1] = x1;
-            x[j + 2] = x2;
-            x[j + 3] = x3;
-            subtractColumns(x, j, x0, x1, x2, x3, j + 4, m);
-        }
-        for (; j < m; j++) {
-            double x0 = x[j] / byColumn[j][j];
-            x[j] = x0;
-            subtractColumn(x, j, x0, j + 1, m);
-        }
-    }
-
-    /** x_i −= x0·L_{i,j} + … + x3·L_{i,j+3} for i in [lo, hi), four columns from j. */
-    private void subtractColumns(double[] x, int j, double x0, double x1, double x2, double x3, int lo, int hi) {
-        double[] c0 = byColumn[j];
-        double[] c1 = byColumn[j + 1];
-        double[] c2 = byColumn[j + 2];
-        double[] c3 = byColumn[j + 3];
-        for (int i = lo; i < hi; i++) {
-            x[i] = Math.fma(-x3, c3[i], Math.fma(-x2, c2[i], Math.fma(-x1, c1[i], Math.fma(-x0, c0[i], x[i]))));
-        }
-    }
-
-    private void subtractColumn(double[] x, int j, double x0, int lo, int hi) {
-        double[] c0 = byColumn[j];
-        for (int i = lo; i < hi; i++) {
-            x[i] = Math.fma(-x0, c0[i], x[i]);
+        for (int i = from; i < size; i++) {
+            double[] row = byRow[i];
+            x[i] = (b[i] - dot(row, x, i)) / row[i];
         }
     }
 

@@ -29,10 +29,10 @@ public final class Knot {
         this.step = b.step;
         this.penalty = b.penalty;
         this.relativePenalty = b.relativePenalty;
-        this.active = b.active.clone();
-        this.signs = b.signs.clone();
-        this.standardized = b.standardized.clone();
-        this.raw = b.raw.clone();
+        this.active = b.active;
+        this.signs = b.signs;
+        this.standardized = b.standardized;
+        this.raw = b.raw;
         this.intercept = b.intercept;
         this.rss = b.rss;
         this.r2 = b.r2;
@@ -120,7 +120,10 @@ public final class Knot {
                 + ", entered=" + entered + ", left=" + left + ", r2=" + r2 + "}";
     }
 
-    /** Package-private mutable holder used by the engine; arrays are copied on build. */
+    /**
+     * Package-private mutable holder used by the engine. The knot keeps the arrays it is given (no copy):
+     * the caller hands over fresh arrays and does not touch them afterwards.
+     */
     static final class Builder {
         private int step;
         private double penalty;
