@@ -119,29 +119,37 @@ final class ActiveCholesky {
         System.arraycopy(byRow, k + 1, byRow, k, m - 1 - k);
         byRow[m - 1] = freed;
         size = m - 1;
-        for (int i = k; i < size; i++) {
-            rotateColumns(i);
+        for (int r = k; r < size; r++) {
+            rotateRow(r, k);
         }
         probeColumn = -1;
     }
 
-    /** Zeroes entry (i, i+1) by rotating columns i and i+1 of rows i … size−1. */
-    private void rotateColumns(int i) {
-        double a = byRow[i][i];
-        double b = byRow[i][i + 1];
-        double r = Math.hypot(a, b);
-        double c = a / r;
-        double s = b / r;
-        rotationCos[i] = c;
-        rotationSin[i] = s;
-        for (int row = i; row < size; row++) {
-            double[] lr = byRow[row];
-            double x = lr[i];
-            double y = lr[i + 1];
-            lr[i] = c * x + s * y;
-            lr[i + 1] = -s * x + c * y;
+    /**
+     * Row r's share of the rotations: rotation i (columns i and i+1) acts on rows i … size−1, so row r
+     * receives rotations k … r−1, already determined by the rows above, and then determines rotation r
+     * from its own entries (r, r+1), which zeroes (r, r+1). Row by row, each row is read once and in order;
+     * every entry goes through the same operations in the same order as rotating column pairs over all rows.
+     */
+    private void rotateRow(int r, int k) {
+        double[] row = byRow[r];
+        for (int i = k; i < r; i++) {
+            double c = rotationCos[i];
+            double s = rotationSin[i];
+            double x = row[i];
+            double y = row[i + 1];
+            row[i] = c * x + s * y;
+            row[i + 1] = -s * x + c * y;
         }
-        byRow[i][i + 1] = 0;
+        double a = row[r];
+        double b = row[r + 1];
+        double h = Math.hypot(a, b);
+        double c = a / h;
+        double s = b / h;
+        rotationCos[r] = c;
+        rotationSin[r] = s;
+        row[r] = c * a + s * b;
+        row[r + 1] = 0;
     }
 
     /** Cosine of rotation i of the last {@link #remove(int)}. */

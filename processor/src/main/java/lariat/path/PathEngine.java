@@ -14,8 +14,10 @@ import java.util.List;
  *       Zou and Hastie, J. R. Statist. Soc. B 67(2), 2005), c = D⁻¹C_xy. The response is centered, not
  *       scaled. Weighted inner products need no special care: the moments are already weighted.</li>
  *   <li>Current correlations ĉ = c − Gβ; the penalty is λ = max_j |ĉ_j| (positive variant: max_j ĉ_j).
- *       ĉ is updated in place after each step, ĉ ← ĉ − γa, in a fixed order of operations, so a path is
- *       a pure function of its input, bit for bit.</li>
+ *       ĉ is updated in place after each step in a fixed order of operations, so a path is a pure function
+ *       of its input, bit for bit: ĉ_j ← ĉ_j − γa_j for inactive j, ĉ_j ← ĉ_j − γA_A s_j for active j (their
+ *       exact change, since G_AA w = A_A s_A), and after a drop of column k with rounding residue β_k,
+ *       ĉ ← ĉ + β_k G_{·k} before β_k is set to 0.</li>
  *   <li>With active set A and signs s: G_AA q = s_A, A_A = (s_Aᵀq)^(−1/2), w = A_A q, a = G_{·A}w. Moving
  *       β_A += γw lowers every active |ĉ_j| by γA_A. The step is the smallest γ ≥ 0 of (λ − ĉ_j)/(A_A − a_j)
  *       and (λ + ĉ_j)/(A_A + a_j) over inactive j (only the first in the positive variant), capped by
@@ -24,22 +26,45 @@ import java.util.List;
  *       there, j leaves A, and the next step admits no column.</li>
  * </ul>
  *
+ * <p>Layout, so that a step costs O(|A|² + |A|·(p − |A|)) and short paths never touch all of C_xx:
+ * <ul>
+ *   <li>Standardizing is O(p) (d, c and the constant columns); the Gram row of a column is computed from
+ *       row j of C_xx (and column j, unless C_xx is exactly symmetric) only when j joins or leaves.</li>
+ *   <li>Columns live in storage positions: the active ones first (in any order), then the inactive ones,
+ *       then the excluded ones; every per-column loop of a step runs over a contiguous range.</li>
+ *   <li>Besides the Cholesky factor L of G_AA ({@link ActiveCholesky}) the engine keeps R = L⁻¹G_{A,I},
+ *       the active rows of a Cholesky factorization of the whole Gram matrix in storage order, over the
+ *       inactive positions I. Then a_I = A_A R_Iᵀv with v = L⁻¹s_A (no back solve), the probe of a
+ *       candidate j is column j of R (l = L⁻¹G_{A,j}, no forward solve), and the row of a joining column,
+ *       (G_{j,I} − lᵀR_I)/L_jj, is built in the same pass over R as the next a. A drop applies the Givens
+ *       rotations that downdate L to the rows of R. The back solve q = L⁻ᵀv is the only triangular solve
+ *       per step.</li>
+ *   <li>Element-wise loops over contiguous rows are written with {@link Math#fma} (exactly rounded, the
+ *       same bits everywhere), four rows per pass, so the JIT compiles them to vector instructions.</li>
+ * </ul>
+ *
  * <p>Numerical rules (each a documented choice):
  * <ul>
  *   <li>A column is {@link ExcludedColumn.Reason#CONSTANT} if C_jj = 0, or C_jj ≤ 10⁻²⁴·max_k C_kk, or
  *       C_jj ≤ 10⁻²⁴·W·μ_j² (a relative spread below 10⁻¹² of its scale or its mean).</li>
+ *   <li>G_jk = ½(C_jk + C_kj)/(d_j d_k), symmetric bit for bit; for an exactly symmetric C_xx this is
+ *       ½(C_jk + C_jk)/(d_j d_k), the same value, computed from row j alone.</li>
  *   <li>A column about to join A is {@link ExcludedColumn.Reason#COLLINEAR} if its squared Cholesky pivot
- *       G_jj − ‖L⁻¹G_{A,j}‖² is at most 10⁻¹⁰·G_jj, that is its squared multiple correlation with the
- *       active columns exceeds 1 − 10⁻¹⁰. It is set aside for the rest of the path, which is then the path
- *       of the remaining columns. Rank deficiency never produces NaN or an exception.</li>
+ *       G_jj − ‖L⁻¹G_{A,j}‖² is at most τ·G_jj, τ = {@link PathOptions#collinearTolerance()} (default
+ *       10⁻¹⁰), that is its squared multiple correlation with the active columns exceeds 1 − τ. It is set
+ *       aside for the rest of the path, which is then the path of the remaining columns. Rank deficiency
+ *       never produces NaN or an exception.</li>
  *   <li>Ties (in λ at the start, in γ later) go to the lowest column index.</li>
  *   <li>The knot reached by the capped step has λ = 0 exactly (λ − γA_A = 0 there).</li>
  *   <li>A response with C_yy = 0 or C_yy ≤ 10⁻²⁴·W·μ_y², or with λ_max = 0, gives one knot (β = 0).</li>
  *   <li>The engine takes at most 10·(p + 1) steps whatever {@link PathOptions#maxSteps()} says.</li>
+ *   <li>A knot's intercept is μ_y − Σ μ_j β_raw,j summed over the active columns in order of entry.</li>
  * </ul>
  *
- * <p>Workspaces are sized once for p in the constructor; {@link #fit} allocates only the knot records and
- * the lists holding them. Reusable, not thread-safe.
+ * <p>Workspaces of O(p) are sized in the constructor; the p-long rows of R and of L are allocated when the
+ * active set first grows to them (a short path allocates O(p·steps), not O(p²)) and reused by later fits.
+ * Otherwise {@link #fit} allocates only the knot records and the lists holding them. Reusable, not
+ * thread-safe.
  */
 public final class PathEngine {
 
