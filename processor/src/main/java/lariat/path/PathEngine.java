@@ -706,17 +706,17 @@ public final class PathEngine {
     private Knot knot(int step, int entered, int left) {
         int[] act = java.util.Arrays.copyOf(active, size);
         int[] sg = java.util.Arrays.copyOf(signs, size);
-        double[] std = new double[p];
-        double[] raw = new double[p];
+        double[] std = new double[size];
+        double[] raw = new double[size];
         double intercept = in.meanY();
         int df = 0;
         for (int k = 0; k < size; k++) {
             int j = active[k];
             double b = beta[j];
             if (b != 0) {
-                std[j] = b;
-                raw[j] = b / d[j];
-                intercept -= in.meanX(j) * raw[j];
+                std[k] = b;
+                raw[k] = b / d[j];
+                intercept -= in.meanX(j) * raw[k];
                 df++;
             }
         }
@@ -724,7 +724,7 @@ public final class PathEngine {
         double r2 = in.cyy() > 0 ? 1 - rss / in.cyy() : 0;
         double relative = lambdaMax > 0 ? lambda / lambdaMax : 1;
         return Knot.builder().step(step).penalty(lambda, step == 0 ? 1 : relative).active(act, sg)
-                .coefficients(std, raw, intercept).fit(rss, r2, df).events(entered, left).build();
+                .coefficients(p, std, raw, intercept).fit(rss, r2, df).events(entered, left).build();
     }
 
     /**
