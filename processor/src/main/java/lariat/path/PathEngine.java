@@ -453,7 +453,9 @@ public final class PathEngine {
      * Since G_{A,j} = L·(row k of L)ᵀ, column j of the active rows becomes row k of L; then the Givens
      * rotations that restore L (see {@link ActiveCholesky#remove(int)}) are applied to the pairs of active
      * rows (i, i+1), i = k … |A|−2, over the inactive positions: with L_{−k}Q = [L' 0],
-     * G_{A',·} = L'·(first |A|−1 rows of QᵀL⁻¹G_{A,·}).
+     * G_{A',·} = L'·(first |A|−1 rows of QᵀL⁻¹G_{A,·}). The same rotations carry v = L⁻¹s_A, computed by
+     * this step's {@link #direction()}, to L'⁻¹s_{A'} (s_{A'} is s_A without entry k), so no forward solve
+     * follows a drop.
      */
     private void removeActive(int position) {
         int column = active[position];
@@ -475,12 +477,16 @@ public final class PathEngine {
                 upper[j] = cs * x + sn * y;
                 lower[j] = -sn * x + cs * y;
             }
+            double x = v[i];
+            double y = v[i + 1];
+            v[i] = cs * x + sn * y;
+            v[i + 1] = -sn * x + cs * y;
         }
         System.arraycopy(active, position + 1, active, position, size - position - 1);
         System.arraycopy(signs, position + 1, signs, position, size - position - 1);
         System.arraycopy(signValues, position + 1, signValues, position, size - position - 1);
-        vSolved = Math.min(vSolved, position);
         size--;
+        vSolved = Math.min(vSolved, size);
         beta[column] = 0;
         status[column] = INACTIVE;
     }
@@ -521,8 +527,7 @@ public final class PathEngine {
 
     /**
      * Fills q, w (by active position), A_A and a = G_{I,A}w over the inactive positions I. With v = L⁻¹s_A
-     * (kept across steps: one new entry per joining column, entries from the dropped position on after a
-     * drop), s_AᵀG_AA⁻¹s_A = ‖v‖², so A_A = 1/‖v‖ and q = L⁻ᵀv. Since G_{A,I} = L·R_I with R = {@link #rows},
+     * (kept across steps: one new entry per joining column, rotated with L after a drop), s_AᵀG_AA⁻¹s_A = ‖v‖², so A_A = 1/‖v‖ and q = L⁻ᵀv. Since G_{A,I} = L·R_I with R = {@link #rows},
      * a = A_A·R_Iᵀv, built four rows per pass: a_j = fma(u₃, ·, fma(u₂, ·, fma(u₁, ·, fma(u₀, ·, a_j)))) with
      * u_k = A_A v_k; no back solve is needed for a.
      */
