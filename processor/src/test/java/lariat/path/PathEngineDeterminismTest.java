@@ -10,12 +10,12 @@ import java.util.Random;
 import org.junit.jupiter.api.Test;
 
 /**
- * The engine's symmetrization rule (class comment of {@link PathEngine}): G_jk = ½(C_jk + C_kj)/(d_j d_k).
- * An input whose C_xx is asymmetric by rounding-sized amounts must give, bit for bit, the path of the
- * exactly symmetric input ½(C_jk + C_kj) (formed here with the same expression), which the engine reads by
- * rows only. The oracle is that identity between two inputs.
+ * Bit-for-bit identities of the engine. The symmetrization rule (class comment of {@link PathEngine}),
+ * G_jk = ½(C_jk + C_kj)/(d_j d_k): an input whose C_xx is asymmetric by rounding-sized amounts must give the
+ * path of the exactly symmetric input ½(C_jk + C_kj) (formed here with the same expression), which the
+ * engine reads by rows only. And reuse: workspaces left by earlier fits never change a result.
  */
-class PathEngineSymmetryTest {
+class PathEngineDeterminismTest {
 
     @Test
     void fit_asymmetricCxx_samePathAsItsSymmetrizedInput() {
@@ -58,6 +58,39 @@ class PathEngineSymmetryTest {
                 assertArrayEquals(y.standardized(), x.standardized(), 0, "coefficients of knot " + k);
                 assertEquals(y.rss(), x.rss(), 0, "rss of knot " + k);
             }
+        }
+    }
+
+    /**
+     * A path is a pure function of its input: an engine that has already fitted other problems (its row
+     * workspaces hold their values) gives the same bits as a fresh engine, for every variant. Oracle: that
+     * identity.
+     */
+    @Test
+    void fit_reusedEngine_sameBitsAsFreshEngine() {
+        int p = 15;
+        PathEngine reused = new PathEngine(p);
+        List<PathOptions> variants = List.of(PathOptions.defaults(), PathOptions.builder().method(PathMethod.LAR)
+                .build(), PathOptions.builder().positive(true).build(), PathOptions.builder().ridge(0.5).build());
+        for (long seed = 300; seed < 306; seed++) {
+            GramInput in = RawProblem.random(seed, seed % 2 == 0 ? 40 : 10, p, seed % 3 == 0).gram();
+            for (PathOptions opt : variants) {
+                assertSameBits(new PathEngine(p).fit(in, opt), reused.fit(in, opt));
+            }
+        }
+    }
+
+    private static void assertSameBits(LassoPath expected, LassoPath actual) {
+        assertEquals(expected.knots().size(), actual.knots().size());
+        assertEquals(expected.excluded().size(), actual.excluded().size());
+        for (int k = 0; k < expected.knots().size(); k++) {
+            Knot x = expected.knots().get(k);
+            Knot y = actual.knots().get(k);
+            assertEquals(x.penalty(), y.penalty(), 0, "penalty of knot " + k);
+            assertArrayEquals(x.active(), y.active(), "active set of knot " + k);
+            assertArrayEquals(x.raw(), y.raw(), 0, "raw coefficients of knot " + k);
+            assertEquals(x.intercept(), y.intercept(), 0, "intercept of knot " + k);
+            assertEquals(x.rss(), y.rss(), 0, "rss of knot " + k);
         }
     }
 }
