@@ -119,21 +119,61 @@ final class ActiveCholesky {
         System.arraycopy(byRow, k + 1, byRow, k, m - 1 - k);
         byRow[m - 1] = freed;
         size = m - 1;
-        for (int r = k; r < size; r++) {
-            rotateRow(r, k);
+        int r = k;
+        for (; r + 3 < size; r += 4) {
+            rotateRows(r, k);
+        }
+        for (; r < size; r++) {
+            applyRotations(byRow[r], k, r);
+            determineRotation(r);
         }
         probeColumn = -1;
     }
 
     /**
-     * Row r's share of the rotations: rotation i (columns i and i+1) acts on rows i … size−1, so row r
-     * receives rotations k … r−1, already determined by the rows above, and then determines rotation r
-     * from its own entries (r, r+1), which zeroes (r, r+1). Row by row, each row is read once and in order;
-     * every entry goes through the same operations in the same order as rotating column pairs over all rows.
+     * Rows r … r+3's share of the rotations. Rotation i (columns i and i+1) acts on rows i … size−1, so row
+     * r receives rotations k … r−1, already determined by the rows above, and then determines rotation r
+     * from its own entries (r, r+1), which zeroes (r, r+1). Each row is read once and in order, four rows
+     * side by side (independent chains of dependent operations); every entry goes through the same
+     * operations in the same order as when rotating column pairs over all rows.
      */
-    private void rotateRow(int r, int k) {
-        double[] row = byRow[r];
+    private void rotateRows(int r, int k) {
+        double[] r0 = byRow[r];
+        double[] r1 = byRow[r + 1];
+        double[] r2 = byRow[r + 2];
+        double[] r3 = byRow[r + 3];
         for (int i = k; i < r; i++) {
+            double c = rotationCos[i];
+            double s = rotationSin[i];
+            double x0 = r0[i];
+            double y0 = r0[i + 1];
+            double x1 = r1[i];
+            double y1 = r1[i + 1];
+            double x2 = r2[i];
+            double y2 = r2[i + 1];
+            double x3 = r3[i];
+            double y3 = r3[i + 1];
+            r0[i] = c * x0 + s * y0;
+            r0[i + 1] = -s * x0 + c * y0;
+            r1[i] = c * x1 + s * y1;
+            r1[i + 1] = -s * x1 + c * y1;
+            r2[i] = c * x2 + s * y2;
+            r2[i + 1] = -s * x2 + c * y2;
+            r3[i] = c * x3 + s * y3;
+            r3[i + 1] = -s * x3 + c * y3;
+        }
+        determineRotation(r);
+        applyRotations(r1, r, r + 1);
+        determineRotation(r + 1);
+        applyRotations(r2, r, r + 2);
+        determineRotation(r + 2);
+        applyRotations(r3, r, r + 3);
+        determineRotation(r + 3);
+    }
+
+    /** Applies rotations from … to−1 to {@code row}, in that order. */
+    private void applyRotations(double[] row, int from, int to) {
+        for (int i = from; i < to; i++) {
             double c = rotationCos[i];
             double s = rotationSin[i];
             double x = row[i];
@@ -141,6 +181,11 @@ final class ActiveCholesky {
             row[i] = c * x + s * y;
             row[i + 1] = -s * x + c * y;
         }
+    }
+
+    /** Rotation r from the entries (r, r+1) of row r, all earlier rotations applied; zeroes (r, r+1). */
+    private void determineRotation(int r) {
+        double[] row = byRow[r];
         double a = row[r];
         double b = row[r + 1];
         double h = Math.hypot(a, b);
