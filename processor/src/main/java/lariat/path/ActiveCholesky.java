@@ -249,18 +249,13 @@ final class ActiveCholesky {
             x[i - 1] = x1;
             x[i - 2] = x2;
             x[i - 3] = x3;
-            int n = i - 3;
-            for (int k = 0; k < n; k++) {
-                x[k] = Math.fma(-x3, r3[k], Math.fma(-x2, r2[k], Math.fma(-x1, r1[k], Math.fma(-x0, r0[k], x[k]))));
-            }
+            RowKernels.fma4(x, 0, i - 3, -x0, r0, -x1, r1, -x2, r2, -x3, r3);
         }
         for (; i >= 0; i--) {
             double[] r0 = byRow[i];
             double x0 = x[i] / r0[i];
             x[i] = x0;
-            for (int k = 0; k < i; k++) {
-                x[k] = Math.fma(-x0, r0[k], x[k]);
-            }
+            RowKernels.fma1(x, 0, i, -x0, r0);
         }
     }
 

@@ -469,14 +469,7 @@ public final class PathEngine {
         for (int i = position; i < m - 1; i++) {
             double cs = cholesky.rotationCos(i);
             double sn = cholesky.rotationSin(i);
-            double[] upper = rows[i];
-            double[] lower = rows[i + 1];
-            for (int j = j0; j < end; j++) {
-                double x = upper[j];
-                double y = lower[j];
-                upper[j] = cs * x + sn * y;
-                lower[j] = -sn * x + cs * y;
-            }
+            RowKernels.rotate(rows[i], rows[i + 1], j0, end, cs, sn);
             double x = v[i];
             double y = v[i + 1];
             v[i] = cs * x + sn * y;
@@ -551,26 +544,14 @@ public final class PathEngine {
             directionWithJoin(lo, hi);
             return;
         }
+        double u = directionScale;
         int k = 0;
         for (; k + 3 < size; k += 4) {
-            double v0 = directionScale * v[k];
-            double v1 = directionScale * v[k + 1];
-            double v2 = directionScale * v[k + 2];
-            double v3 = directionScale * v[k + 3];
-            double[] r0 = rows[k];
-            double[] r1 = rows[k + 1];
-            double[] r2 = rows[k + 2];
-            double[] r3 = rows[k + 3];
-            for (int j = lo; j < hi; j++) {
-                a[j] = Math.fma(v3, r3[j], Math.fma(v2, r2[j], Math.fma(v1, r1[j], Math.fma(v0, r0[j], a[j]))));
-            }
+            RowKernels.fma4(a, lo, hi, u * v[k], rows[k], u * v[k + 1], rows[k + 1], u * v[k + 2], rows[k + 2],
+                    u * v[k + 3], rows[k + 3]);
         }
         for (; k < size; k++) {
-            double v0 = directionScale * v[k];
-            double[] r0 = rows[k];
-            for (int j = lo; j < hi; j++) {
-                a[j] = Math.fma(v0, r0[j], a[j]);
-            }
+            RowKernels.fma1(a, lo, hi, u * v[k], rows[k]);
         }
     }
 
@@ -586,38 +567,15 @@ public final class PathEngine {
             rows[n] = new double[p];
         }
         java.util.Arrays.fill(partial, lo, hi, 0);
+        double u = directionScale;
+        double[] l = pendingRow;
         int k = 0;
         for (; k + 3 < n; k += 4) {
-            double v0 = directionScale * v[k];
-            double v1 = directionScale * v[k + 1];
-            double v2 = directionScale * v[k + 2];
-            double v3 = directionScale * v[k + 3];
-            double l0 = pendingRow[k];
-            double l1 = pendingRow[k + 1];
-            double l2 = pendingRow[k + 2];
-            double l3 = pendingRow[k + 3];
-            double[] r0 = rows[k];
-            double[] r1 = rows[k + 1];
-            double[] r2 = rows[k + 2];
-            double[] r3 = rows[k + 3];
-            for (int j = lo; j < hi; j++) {
-                double x0 = r0[j];
-                double x1 = r1[j];
-                double x2 = r2[j];
-                double x3 = r3[j];
-                a[j] = Math.fma(v3, x3, Math.fma(v2, x2, Math.fma(v1, x1, Math.fma(v0, x0, a[j]))));
-                partial[j] = Math.fma(l3, x3, Math.fma(l2, x2, Math.fma(l1, x1, Math.fma(l0, x0, partial[j]))));
-            }
+            RowKernels.fma4Twice(a, partial, lo, hi, u * v[k], u * v[k + 1], u * v[k + 2], u * v[k + 3],
+                    l[k], l[k + 1], l[k + 2], l[k + 3], rows[k], rows[k + 1], rows[k + 2], rows[k + 3]);
         }
         for (; k < n; k++) {
-            double v0 = directionScale * v[k];
-            double l0 = pendingRow[k];
-            double[] r0 = rows[k];
-            for (int j = lo; j < hi; j++) {
-                double x0 = r0[j];
-                a[j] = Math.fma(v0, x0, a[j]);
-                partial[j] = Math.fma(l0, x0, partial[j]);
-            }
+            RowKernels.fma1Twice(a, partial, lo, hi, u * v[k], l[k], rows[k]);
         }
         buildRow(active[n], gramRow);
         double pivot = cholesky.entry(n, n);
