@@ -16,8 +16,8 @@ package lariat.path;
  * column-oriented (axpy) form over these rows: once x_i … x_{i−3} are known, rows i … i−3 are subtracted from
  * the entries before them in one pass, each entry updated as
  * {@code fma(−x₃, ·, fma(−x₂, ·, fma(−x₁, ·, fma(−x₀, ·, e))))} in that order ({@link Math#fma} is exactly
- * rounded, so the results are the same bits on every machine). The forward solve, needed only for single
- * new entries and after a removal, is in dot-product form over the same rows. One copy of L keeps the
+ * rounded, so the results are the same bits on every machine). The forward solve (the engine needs only
+ * single new entries of it) is in dot-product form over the same rows. One copy of L keeps the
  * working set small (for large active sets the solves are bound by memory traffic, not arithmetic).
  */
 final class ActiveCholesky {

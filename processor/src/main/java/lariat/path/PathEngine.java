@@ -270,8 +270,8 @@ public final class PathEngine {
 
     /**
      * The O(p) part of the standardization: d_j, the constant columns, c = D⁻¹C_xy, ĉ = c (β = 0) and the
-     * storage positions (candidates in column order, then the constant columns). Gram rows are built when
-     * their column joins ({@link #buildRow}).
+     * storage positions (candidates in column order, then the constant columns). A Gram row is built only
+     * when its column joins or leaves ({@link #buildRow}).
      */
     private void standardize() {
         double maxDiag = 0;
@@ -487,7 +487,8 @@ public final class PathEngine {
     /**
      * Takes one step. Returns the column that will join at the new knot, or −1; leaves {@link #dropPosition}
      * ≥ 0 when an active coefficient reached zero instead, and both negative when the step was the capped one.
-     * Inactive correlations move by −γa_j; active ones by −γA_A s_j, their exact change (G_AA w = A_A s_A).
+     * Inactive correlations move by −γa_j (ĉ_j = fma(−γ, a_j, ĉ_j)); active ones by −γA_A s_j, their exact
+     * change (G_AA w = A_A s_A).
      */
     private int advance(int justLeft) {
         direction();
@@ -503,19 +504,18 @@ public final class PathEngine {
             beta[active[k]] += gamma * w[k];
             chat[positionOf[active[k]]] -= activeStep * signValues[k];
         }
-        for (int j = size; j < end; j++) {
-            chat[j] -= gamma * a[j];
-        }
+        RowKernels.fma1(chat, size, end, -gamma, a);
         if (dropPosition >= 0) {
-            int column = active[dropPosition];
-            double b = beta[column];
-            buildRow(column, gramRow);
-            for (int j = 0; j < end; j++) {
-                chat[j] += b * gramRow[j];
-            }
-            beta[column] = 0;
+            settleDrop(active[dropPosition]);
         }
         return hitter;
+    }
+
+    /** ĉ ← ĉ + β_k G_{·k} for the column k whose coefficient reached zero (up to rounding), then β_k = 0. */
+    private void settleDrop(int column) {
+        buildRow(column, gramRow);
+        RowKernels.fma1(chat, 0, end, beta[column], gramRow);
+        beta[column] = 0;
     }
 
     /**
