@@ -84,6 +84,11 @@ public final class FitCommand implements Callable<Integer> {
             + "coefficients multiplied by (1 + L2) (Zou & Hastie 2005), instead of the naive one.")
     boolean ridgeRescale;
 
+    @Option(names = "--collinear-tolerance", paramLabel = "T", defaultValue = "1e-10",
+            description = "Set a joining feature aside as collinear when its squared Cholesky pivot is at most T "
+                    + "times its Gram diagonal, T in (0, 1) (default: ${DEFAULT-VALUE}).")
+    double collinearTolerance;
+
     @Option(names = "--max-active", paramLabel = "N", description = "Stop the path at N active features.")
     Integer maxActive;
 
@@ -328,7 +333,7 @@ public final class FitCommand implements Callable<Integer> {
                 case "lasso" -> PathMethod.LASSO;
                 default -> throw usage("--method must be lar or lasso, was " + method);
             });
-            b.positive(positive).ridge(ridge);
+            b.positive(positive).ridge(ridge).collinearTolerance(collinearTolerance);
             if (maxActive != null) {
                 b.maxActive(maxActive);
             }
@@ -350,7 +355,7 @@ public final class FitCommand implements Callable<Integer> {
     /** Training paths of the folds: same method and penalties, run down to the grid's smallest point. */
     private PathOptions foldOptions(LassoPath path) {
         PathOptions.Builder b = PathOptions.builder().method(method.equalsIgnoreCase("lar") ? PathMethod.LAR
-                : PathMethod.LASSO).positive(positive).ridge(ridge);
+                : PathMethod.LASSO).positive(positive).ridge(ridge).collinearTolerance(collinearTolerance);
         double last = path.last().relativePenalty();
         if (last > 0 && last < 1) {
             b.minRelativePenalty(last);

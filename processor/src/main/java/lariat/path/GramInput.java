@@ -26,6 +26,7 @@ public final class GramInput {
     private final double totalWeight;
     private final double sumSquaredWeights;
     private final long count;
+    private final boolean exactlySymmetric;
 
     private GramInput(double[] cxx, double[] cxy, double cyy, double[] meanX, double meanY,
                       double totalWeight, double sumSquaredWeights, long count) {
@@ -46,7 +47,7 @@ public final class GramInput {
         if (count < 1) {
             throw new IllegalArgumentException("count must be >= 1, was " + count);
         }
-        checkSymmetricWithNonNegativeDiagonal(cxx, p);
+        this.exactlySymmetric = checkSymmetricWithNonNegativeDiagonal(cxx, p);
         this.cxx = cxx.clone();
         this.cxy = cxy.clone();
         this.cyy = cyy;
@@ -96,16 +97,19 @@ public final class GramInput {
         }
     }
 
-    private static void checkSymmetricWithNonNegativeDiagonal(double[] c, int p) {
+    /** Validates; returns whether C_ij and C_ji are the same bits for every pair. */
+    private static boolean checkSymmetricWithNonNegativeDiagonal(double[] c, int p) {
         for (int i = 0; i < p; i++) {
             if (c[i * p + i] < 0) {
                 throw new IllegalArgumentException("cxx[" + i + "," + i + "] must be >= 0, was " + c[i * p + i]);
             }
         }
+        boolean exact = true;
         for (int i = 0; i < p; i++) {
             for (int j = i + 1; j < p; j++) {
                 double a = c[i * p + j];
                 double b = c[j * p + i];
+                exact &= Double.doubleToRawLongBits(a) == Double.doubleToRawLongBits(b);
                 double scale = Math.sqrt(c[i * p + i] * c[j * p + j]) + Math.abs(a) + Math.abs(b);
                 if (Math.abs(a - b) > SYMMETRY_TOLERANCE * scale) {
                     throw new IllegalArgumentException("cxx is not symmetric: cxx[" + i + "," + j + "]=" + a
@@ -113,6 +117,7 @@ public final class GramInput {
                 }
             }
         }
+        return exact;
     }
 
     /** Number of predictor columns. */
@@ -128,6 +133,18 @@ public final class GramInput {
     /** Entry (i, j) of C_xx without copying. */
     public double cxx(int i, int j) {
         return cxx[i * p + j];
+    }
+
+    /**
+     * The p × p row-major C_xx itself, not a copy, for the engine's row reads (callers must not modify it).
+     */
+    double[] cxxShared() {
+        return cxx;
+    }
+
+    /** Whether C_ij and C_ji are the same bits for every pair (then row i of C_xx is also its column i). */
+    boolean exactlySymmetric() {
+        return exactlySymmetric;
     }
 
     /** A copy of the centered co-moments of x with y. */

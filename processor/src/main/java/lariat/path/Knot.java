@@ -11,6 +11,7 @@ package lariat.path;
  */
 public final class Knot {
 
+    private final int p;
     private final int step;
     private final double penalty;
     private final double relativePenalty;
@@ -26,22 +27,24 @@ public final class Knot {
     private final int left;
 
     private Knot(Builder b) {
+        this.p = b.p;
         this.step = b.step;
         this.penalty = b.penalty;
         this.relativePenalty = b.relativePenalty;
-        this.active = b.active.clone();
-        this.signs = b.signs.clone();
-        this.standardized = b.standardized.clone();
-        this.raw = b.raw.clone();
+        this.active = b.active;
+        this.signs = b.signs;
+        this.standardized = b.standardized;
+        this.raw = b.raw;
         this.intercept = b.intercept;
         this.rss = b.rss;
         this.r2 = b.r2;
         this.df = b.df;
         this.entered = b.entered;
         this.left = b.left;
-        if (active.length != signs.length || standardized.length != raw.length) {
-            throw new IllegalArgumentException("active/signs or coefficient lengths differ: " + active.length
-                    + "/" + signs.length + ", " + standardized.length + "/" + raw.length);
+        if (active.length != signs.length || standardized.length != active.length
+                || raw.length != active.length) {
+            throw new IllegalArgumentException("active/signs/coefficient lengths differ: " + active.length
+                    + "/" + signs.length + "/" + standardized.length + "/" + raw.length);
         }
     }
 
@@ -76,12 +79,24 @@ public final class Knot {
 
     /** Coefficients on the standardized scale (x̃ = (x − μ)/d, d_j = sqrt(C_jj)), length p. */
     public double[] standardized() {
-        return standardized.clone();
+        return expand(standardized);
     }
 
     /** Coefficients in the units of the raw columns, β_raw = β/d, length p. */
     public double[] raw() {
-        return raw.clone();
+        return expand(raw);
+    }
+
+    /** Only active columns can have nonzero coefficients, so a knot keeps those alone (O(|A|), not O(p)). */
+    private double[] expand(double[] byActive) {
+        double[] out = new double[p];
+        for (int k = 0; k < active.length; k++) {
+            double v = byActive[k];
+            if (v != 0) {
+                out[active[k]] = v;
+            }
+        }
+        return out;
     }
 
     /** Intercept μ_y − μ_xᵀβ_raw. */
@@ -120,8 +135,12 @@ public final class Knot {
                 + ", entered=" + entered + ", left=" + left + ", r2=" + r2 + "}";
     }
 
-    /** Package-private mutable holder used by the engine; arrays are copied on build. */
+    /**
+     * Package-private mutable holder used by the engine. The knot keeps the arrays it is given (no copy):
+     * the caller hands over fresh arrays and does not touch them afterwards.
+     */
     static final class Builder {
+        private int p;
         private int step;
         private double penalty;
         private double relativePenalty;
@@ -153,7 +172,13 @@ public final class Knot {
             return this;
         }
 
-        Builder coefficients(double[] std, double[] rawCoefficients, double icpt) {
+        /**
+         * @param columns         p
+         * @param std             standardized coefficients of the active columns, aligned with them
+         * @param rawCoefficients raw coefficients of the active columns, aligned with them
+         */
+        Builder coefficients(int columns, double[] std, double[] rawCoefficients, double icpt) {
+            p = columns;
             standardized = std;
             raw = rawCoefficients;
             intercept = icpt;

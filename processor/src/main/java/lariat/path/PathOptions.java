@@ -6,9 +6,13 @@ import java.util.Objects;
  * What path to compute and where to stop. Immutable; build with {@link #builder()}.
  *
  * <p>Defaults: {@link PathMethod#LASSO}, not positive, no ridge, and no stopping rule, so the path runs to
- * its end (the least-squares fit, or the fit at the rank when p exceeds the number of rows).
+ * its end (the least-squares fit, or the fit at the rank when p exceeds the number of rows), and a collinear
+ * tolerance of {@value #DEFAULT_COLLINEAR_TOLERANCE}.
  */
 public final class PathOptions {
+
+    /** The default {@link #collinearTolerance()}. */
+    public static final double DEFAULT_COLLINEAR_TOLERANCE = 1e-10;
 
     private final PathMethod method;
     private final boolean positive;
@@ -17,6 +21,7 @@ public final class PathOptions {
     private final double targetR2;
     private final double minRelativePenalty;
     private final int maxSteps;
+    private final double collinearTolerance;
 
     private PathOptions(Builder b) {
         this.method = b.method;
@@ -26,6 +31,7 @@ public final class PathOptions {
         this.targetR2 = b.targetR2;
         this.minRelativePenalty = b.minRelativePenalty;
         this.maxSteps = b.maxSteps;
+        this.collinearTolerance = b.collinearTolerance;
     }
 
     /** A builder holding the defaults. */
@@ -80,24 +86,36 @@ public final class PathOptions {
         return maxSteps;
     }
 
+    /**
+     * The relative squared Cholesky pivot at or below which a joining column is collinear with the active
+     * set: it is set aside when G_jj − ‖L⁻¹G_{A,j}‖² ≤ tolerance·G_jj, that is when its squared multiple
+     * correlation with the active columns exceeds 1 − tolerance.
+     */
+    public double collinearTolerance() {
+        return collinearTolerance;
+    }
+
     @Override
     public boolean equals(Object o) {
         return o instanceof PathOptions x && x.method == method && x.positive == positive
                 && Double.compare(x.ridge, ridge) == 0 && x.maxActive == maxActive
                 && Double.compare(x.targetR2, targetR2) == 0
-                && Double.compare(x.minRelativePenalty, minRelativePenalty) == 0 && x.maxSteps == maxSteps;
+                && Double.compare(x.minRelativePenalty, minRelativePenalty) == 0 && x.maxSteps == maxSteps
+                && Double.compare(x.collinearTolerance, collinearTolerance) == 0;
     }
 
     @Override
     public int hashCode() {
-        return Objects.hash(method, positive, ridge, maxActive, targetR2, minRelativePenalty, maxSteps);
+        return Objects.hash(method, positive, ridge, maxActive, targetR2, minRelativePenalty, maxSteps,
+                collinearTolerance);
     }
 
     @Override
     public String toString() {
         return "PathOptions{method=" + method + ", positive=" + positive + ", ridge=" + ridge
                 + ", maxActive=" + maxActive + ", targetR2=" + targetR2
-                + ", minRelativePenalty=" + minRelativePenalty + ", maxSteps=" + maxSteps + "}";
+                + ", minRelativePenalty=" + minRelativePenalty + ", maxSteps=" + maxSteps
+                + ", collinearTolerance=" + collinearTolerance + "}";
     }
 
     /** Mutable builder; each setter validates its argument. */
@@ -109,6 +127,7 @@ public final class PathOptions {
         private double targetR2 = Double.POSITIVE_INFINITY;
         private double minRelativePenalty;
         private int maxSteps = Integer.MAX_VALUE;
+        private double collinearTolerance = DEFAULT_COLLINEAR_TOLERANCE;
 
         private Builder() {
         }
@@ -168,6 +187,15 @@ public final class PathOptions {
                 throw new IllegalArgumentException("maxSteps must be >= 1, was " + maxSteps);
             }
             this.maxSteps = maxSteps;
+            return this;
+        }
+
+        /** @param collinearTolerance in (0, 1) */
+        public Builder collinearTolerance(double collinearTolerance) {
+            if (!(collinearTolerance > 0 && collinearTolerance < 1)) {
+                throw new IllegalArgumentException("collinearTolerance must be in (0, 1), was " + collinearTolerance);
+            }
+            this.collinearTolerance = collinearTolerance;
             return this;
         }
 

@@ -48,6 +48,7 @@ public final class RefitRecipe {
                         : PathMethod.LASSO)
                 .positive(c.get(StageConfig.PATH_POSITIVE))
                 .ridge(c.get(StageConfig.PATH_RIDGE))
+                .collinearTolerance(c.get(StageConfig.PATH_COLLINEAR_TOLERANCE))
                 .minRelativePenalty(c.get(StageConfig.PATH_MIN_RELATIVE_PENALTY))
                 .targetR2(c.get(StageConfig.PATH_MAX_R2));
         if (c.get(StageConfig.PATH_MAX_ACTIVE) > 0) {

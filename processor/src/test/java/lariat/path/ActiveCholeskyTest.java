@@ -81,7 +81,7 @@ class ActiveCholeskyTest {
                 boolean join = m == 0 || (m < p && rnd.nextDouble() < 0.6);
                 if (join) {
                     int col = pickInactive(rnd, active, m, p);
-                    assertTrue(chol.probe(g, p, active, col) > 0);
+                    assertTrue(probe(chol, g, p, active, col) > 0);
                     chol.commit(col);
                     active[m++] = col;
                 } else {
@@ -100,12 +100,21 @@ class ActiveCholeskyTest {
         double[] g = {1, 0, 0.6, 0, 1, 0.8, 0.6, 0.8, 1};
         ActiveCholesky chol = new ActiveCholesky(3);
         int[] active = {0, 1, 0};
-        chol.probe(g, 3, active, 0);
+        probe(chol, g, 3, active, 0);
         chol.commit(0);
-        chol.probe(g, 3, active, 1);
+        probe(chol, g, 3, active, 1);
         chol.commit(1);
 
-        assertEquals(0, chol.probe(g, 3, active, 2), 1e-15, "x3 = 0.6 x1 + 0.8 x2 has no residual variance");
+        assertEquals(0, probe(chol, g, 3, active, 2), 1e-15, "x3 = 0.6 x1 + 0.8 x2 has no residual variance");
+    }
+
+    /** Probes column {@code col} with G_{A,col} gathered from the p × p row-major {@code g}. */
+    private static double probe(ActiveCholesky chol, double[] g, int p, int[] active, int col) {
+        double[] b = new double[p];
+        for (int i = 0; i < chol.size(); i++) {
+            b[i] = g[active[i] * p + col];
+        }
+        return chol.probe(b, g[col * p + col], col);
     }
 
     private static int pickInactive(Random rnd, int[] active, int m, int p) {

@@ -62,6 +62,77 @@ class PathEngineEdgeCaseTest {
         }
     }
 
+    /**
+     * x2 = x0 + x1 + 10⁻⁴·e: each column's 1 − R² on the other two is about 10⁻⁸ (computed here from the
+     * centered raw rows by the normal equations, Cramer's rule on the 2 × 2 system). Below the default
+     * tolerance 10⁻¹⁰ nothing is set aside; with a tolerance of 10⁻⁶ the third of the three to join is.
+     */
+    @Test
+    void fit_collinearTolerance_decidesWhetherANearlyCollinearColumnIsSetAside() {
+        Random rnd = new Random(105);
+        int n = 50;
+        double[][] x = new double[n][3];
+        double[] y = new double[n];
+        for (int i = 0; i < n; i++) {
+            x[i][0] = rnd.nextGaussian();
+            x[i][1] = rnd.nextGaussian();
+            x[i][2] = x[i][0] + x[i][1] + 1e-4 * rnd.nextGaussian();
+            y[i] = x[i][0] + 2 * x[i][1] + 0.5 * rnd.nextGaussian();
+        }
+        RawProblem problem = RawProblem.unweighted(x, y);
+        double smallest = Double.POSITIVE_INFINITY;
+        double largest = 0;
+        for (int k = 0; k < 3; k++) {
+            double rho = residualShare(x, k);
+            smallest = Math.min(smallest, rho);
+            largest = Math.max(largest, rho);
+        }
+        assertTrue(smallest > 1e-9 && largest < 1e-7, "premise: 1 - R^2 in (1e-9, 1e-7): " + smallest + ", " + largest);
+
+        LassoPath loose = new PathEngine(3).fit(problem.gram(), LASSO);
+        PathOptions strictOptions = PathOptions.builder().collinearTolerance(1e-6).build();
+        LassoPath strict = new PathEngine(3).fit(problem.gram(), strictOptions);
+
+        assertEquals(List.of(), loose.excluded(), "default tolerance 1e-10 keeps all three");
+        assertEquals(3, loose.last().active().length);
+        assertEquals(1, strict.excluded().size(), "tolerance 1e-6 sets one aside: " + strict.excluded());
+        ExcludedColumn ex = strict.excluded().get(0);
+        assertEquals(ExcludedColumn.Reason.COLLINEAR, ex.reason());
+        assertEquals(StopReason.RANK, strict.stopReason());
+        int[] lastActive = strict.last().active();
+        assertEquals(2, lastActive.length);
+        for (int column : lastActive) {
+            assertTrue(column != ex.column(), "the excluded column is not active");
+        }
+        PathCertificates.assertPath(loose, problem, LASSO);
+        PathCertificates.assertPath(strict, problem, strictOptions);
+    }
+
+    /** 1 − R² of column k regressed on the other two columns of x (with intercept), from centered rows. */
+    private static double residualShare(double[][] x, int k) {
+        int n = x.length;
+        double[] mean = new double[3];
+        for (double[] row : x) {
+            for (int j = 0; j < 3; j++) {
+                mean[j] += row[j] / n;
+            }
+        }
+        double[][] s = new double[3][3];
+        for (double[] row : x) {
+            for (int i = 0; i < 3; i++) {
+                for (int j = 0; j < 3; j++) {
+                    s[i][j] += (row[i] - mean[i]) * (row[j] - mean[j]);
+                }
+            }
+        }
+        int a = k == 0 ? 1 : 0;
+        int b = k == 2 ? 1 : 2;
+        double det = s[a][a] * s[b][b] - s[a][b] * s[b][a];
+        double ca = (s[k][a] * s[b][b] - s[k][b] * s[a][b]) / det;
+        double cb = (s[k][b] * s[a][a] - s[k][a] * s[a][b]) / det;
+        return (s[k][k] - ca * s[a][k] - cb * s[b][k]) / s[k][k];
+    }
+
     @Test
     void fit_duplicatedColumn_higherIndexIsCollinear() {
         RawProblem problem = withDerivedColumn(102, 60, 3, r -> r[1]);
