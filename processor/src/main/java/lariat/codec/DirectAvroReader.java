@@ -423,7 +423,7 @@ final class DirectAvroReader {
         }
         int found = 0;
         for (int e = 0; e < entries; e++) {
-            int c = t.column(buf, entryOff[e], entryLen[e]);
+            int c = t.column(e, buf, entryOff[e], entryLen[e]);
             if (c < 0) {
                 continue;
             }

@@ -41,7 +41,7 @@ final class KeyCache {
         int mask = keys.length - 1;
         int i = h & mask;
         for (byte[] k = keys[i]; k != null; k = keys[i]) {
-            if (hashes[i] == h && Arrays.equals(k, 0, k.length, bytes, off, off + len)) {
+            if (hashes[i] == h && ChannelTable.same(k, bytes, off, len)) {
                 return texts[i];
             }
             i = (i + 1) & mask;

@@ -71,11 +71,11 @@ final class RecordRouter {
             return Outcome.rejected(null, x.reason().name(), x.detail(), x.exceptionClass().orElse(null));
         }
         String key = row.key();
-        int owner = states.ownerOf(key);
-        if (owner >= 0 && owner != partition) {
-            return Outcome.rejected(key, DeadLetters.KEY_ON_TWO_PARTITIONS, "key lives on partition " + owner, null);
+        KeyState state = states.get(key);
+        if (state != null && state.partition() != partition) {
+            return Outcome.rejected(key, DeadLetters.KEY_ON_TWO_PARTITIONS, "key lives on partition "
+                    + state.partition(), null);
         }
-        KeyState state = owner >= 0 ? states.get(key) : null;
         double[] z = row.z();
         if (state != null && state.width() != z.length) {
             return Outcome.rejected(key, DeadLetters.WRONG_WIDTH,
