@@ -112,6 +112,9 @@ final class DirectAvroReader {
     private boolean[] entryUsable = new boolean[64];
     private int[] seen = new int[0];
     private int stamp;
+    private RowBuffer row;
+    private boolean mapped;
+    private boolean mapFilled;
 
     private DirectAvroReader(Schema reader, FieldMapper.Plan p, Map<String, Role> roleOf, Map<String, Integer> columns,
                              boolean singleObject) {
@@ -255,6 +258,8 @@ final class DirectAvroReader {
         pos = headerLength;
         end = value.length;
         entries = 0;
+        mapped = false;
+        row = out;
         try {
             for (int i = 0; i < roles.length; i++) {
                 field(i);
@@ -267,6 +272,7 @@ final class DirectAvroReader {
             return false;
         } finally {
             buf = null;
+            row = null;
         }
     }
 
@@ -330,6 +336,11 @@ final class DirectAvroReader {
     }
 
     private void map() {
+        ChannelTable t = fixedLayout == null ? null : table(fixedLayout);
+        if (t != null) {
+            mapInto(t);
+            return;
+        }
         for (long count = varLong(); count != 0; count = varLong()) {
             if (count < 0 || count > end - pos) {
                 throw DECLINE;
@@ -354,6 +365,59 @@ final class DirectAvroReader {
                 }
             }
         }
+    }
+
+    /**
+     * Reads the map straight into the row's columns by the fixed layout's table, declining on a repeated
+     * column or a column that holds no number; {@link #mapFilled} tells whether every column was found.
+     */
+    private void mapInto(ChannelTable t) {
+        double[] z = row.values(t.columns());
+        int mark = nextMark(t.columns());
+        int found = 0;
+        int e = 0;
+        for (long count = varLong(); count != 0; count = varLong()) {
+            if (count < 0 || count > end - pos) {
+                throw DECLINE;
+            }
+            for (long j = 0; j < count; j++, e++) {
+                int len = length();
+                int off = pos;
+                pos += len;
+                int b = branch(mapValues);
+                byte kind = mapValues.kinds[b];
+                int c = t.column(e, buf, off, len);
+                if (kind >= INT && kind <= DOUBLE) {
+                    double v = number(kind);
+                    if (c >= 0) {
+                        if (seen[c] == mark) {
+                            throw DECLINE;
+                        }
+                        seen[c] = mark;
+                        z[c] = v;
+                        found++;
+                    }
+                } else if (c >= 0) {
+                    throw DECLINE;
+                } else {
+                    skip(mapValues.branches[b]);
+                }
+            }
+        }
+        mapped = true;
+        mapFilled = found == t.columns();
+    }
+
+    /** A fresh mark for {@link #seen} over {@code columns} columns. */
+    private int nextMark(int columns) {
+        if (seen.length < columns) {
+            seen = new int[columns];
+        }
+        if (++stamp == Integer.MAX_VALUE) {
+            Arrays.fill(seen, 0);
+            stamp = 1;
+        }
+        return stamp;
     }
 
     private void growEntries() {
@@ -395,7 +459,7 @@ final class DirectAvroReader {
         double[] z = out.values(layout.size() + 1);
         if (mapValues == null) {
             System.arraycopy(columnValues, 0, z, 0, z.length);
-        } else if (!channels(layout, z)) {
+        } else if (mapped ? !mapFilled : !channels(layout, z)) {
             return false;
         }
         for (double v : z) {
@@ -413,14 +477,7 @@ final class DirectAvroReader {
         if (t == null) {
             return false;
         }
-        if (seen.length < t.columns()) {
-            seen = new int[t.columns()];
-        }
-        int mark = ++stamp;
-        if (mark == Integer.MAX_VALUE) {
-            Arrays.fill(seen, 0);
-            stamp = 0;
-        }
+        int mark = nextMark(t.columns());
         int found = 0;
         for (int e = 0; e < entries; e++) {
             int c = t.column(e, buf, entryOff[e], entryLen[e]);
@@ -576,6 +633,10 @@ final class DirectAvroReader {
 
     /** A zig-zag varint of at most 5 bytes whose value fits 32 bits. */
     private int varInt() {
+        if (pos < end && buf[pos] >= 0) {
+            int b = buf[pos++];
+            return (b >>> 1) ^ -(b & 1);
+        }
         int v = 0;
         for (int i = 0, shift = 0; i < 5; i++, shift += 7) {
             if (pos >= end) {
@@ -595,6 +656,10 @@ final class DirectAvroReader {
 
     /** A zig-zag varint of at most 10 bytes whose value fits 64 bits. */
     private long varLong() {
+        if (pos < end && buf[pos] >= 0) {
+            int b = buf[pos++];
+            return (b >>> 1) ^ -(b & 1);
+        }
         long v = 0;
         for (int i = 0, shift = 0; i < 10; i++, shift += 7) {
             if (pos >= end) {
