@@ -83,6 +83,7 @@ final class DirectAvroReader {
     private final Shape[] shapes;
     private final int[] columnOf;
     private final Shape mapValues;
+    private final boolean plainDoubles;
     private final String target;
     private final boolean keyFromRecordKey;
     private final boolean timeFromTimestamp;
@@ -142,6 +143,7 @@ final class DirectAvroReader {
             }
         }
         this.mapValues = values;
+        this.plainDoubles = values != null && !values.union && values.kinds[0] == DOUBLE;
         this.target = p.target;
         this.keyFromRecordKey = p.keyField.isEmpty();
         this.timeFromTimestamp = p.timeField.isEmpty();
@@ -384,6 +386,21 @@ final class DirectAvroReader {
                 int len = length();
                 int off = pos;
                 pos += len;
+                if (plainDoubles) {
+                    need(8);
+                    double v = Double.longBitsToDouble((long) LONG_LE.get(buf, pos));
+                    pos += 8;
+                    int c = t.column(e, buf, off, len);
+                    if (c >= 0) {
+                        if (seen[c] == mark) {
+                            throw DECLINE;
+                        }
+                        seen[c] = mark;
+                        z[c] = v;
+                        found++;
+                    }
+                    continue;
+                }
                 int b = branch(mapValues);
                 byte kind = mapValues.kinds[b];
                 int c = t.column(e, buf, off, len);
