@@ -386,38 +386,29 @@ final class DirectAvroReader {
                 int len = length();
                 int off = pos;
                 pos += len;
-                if (plainDoubles) {
-                    need(8);
-                    double v = Double.longBitsToDouble((long) LONG_LE.get(buf, pos));
-                    pos += 8;
-                    int c = t.column(e, buf, off, len);
-                    if (c >= 0) {
-                        if (seen[c] == mark) {
-                            throw DECLINE;
-                        }
-                        seen[c] = mark;
-                        z[c] = v;
-                        found++;
-                    }
-                    continue;
-                }
-                int b = branch(mapValues);
-                byte kind = mapValues.kinds[b];
                 int c = t.column(e, buf, off, len);
-                if (kind >= INT && kind <= DOUBLE) {
-                    double v = number(kind);
-                    if (c >= 0) {
-                        if (seen[c] == mark) {
+                double v;
+                if (plainDoubles) {
+                    v = number(DOUBLE);
+                } else {
+                    int b = branch(mapValues);
+                    byte kind = mapValues.kinds[b];
+                    if (kind < INT || kind > DOUBLE) {
+                        if (c >= 0) {
                             throw DECLINE;
                         }
-                        seen[c] = mark;
-                        z[c] = v;
-                        found++;
+                        skip(mapValues.branches[b]);
+                        continue;
                     }
-                } else if (c >= 0) {
-                    throw DECLINE;
-                } else {
-                    skip(mapValues.branches[b]);
+                    v = number(kind);
+                }
+                if (c >= 0) {
+                    if (seen[c] == mark) {
+                        throw DECLINE;
+                    }
+                    seen[c] = mark;
+                    z[c] = v;
+                    found++;
                 }
             }
         }
@@ -650,40 +641,30 @@ final class DirectAvroReader {
 
     /** A zig-zag varint of at most 5 bytes whose value fits 32 bits. */
     private int varInt() {
-        if (pos < end && buf[pos] >= 0) {
-            int b = buf[pos++];
-            return (b >>> 1) ^ -(b & 1);
-        }
-        int v = 0;
-        for (int i = 0, shift = 0; i < 5; i++, shift += 7) {
-            if (pos >= end) {
-                throw DECLINE;
-            }
-            int b = buf[pos++] & 0xFF;
-            if (i == 4 && b > 0x0F) {
-                throw DECLINE;
-            }
-            v |= (b & 0x7F) << shift;
-            if (b < 0x80) {
-                return (v >>> 1) ^ -(v & 1);
-            }
-        }
-        throw DECLINE;
+        return (int) varint(5, 0x0F);
     }
 
     /** A zig-zag varint of at most 10 bytes whose value fits 64 bits. */
     private long varLong() {
+        return varint(10, 0x01);
+    }
+
+    /**
+     * A zig-zag varint of at most {@code maxBytes} bytes whose last byte is at most {@code lastMax}, so the
+     * value fits 32 (5, 0x0F) or 64 (10, 0x01) bits; Avro's own decoder reads such varints to the same value.
+     */
+    private long varint(int maxBytes, int lastMax) {
         if (pos < end && buf[pos] >= 0) {
             int b = buf[pos++];
             return (b >>> 1) ^ -(b & 1);
         }
         long v = 0;
-        for (int i = 0, shift = 0; i < 10; i++, shift += 7) {
+        for (int i = 0, shift = 0; i < maxBytes; i++, shift += 7) {
             if (pos >= end) {
                 throw DECLINE;
             }
             int b = buf[pos++] & 0xFF;
-            if (i == 9 && b > 0x01) {
+            if (i == maxBytes - 1 && b > lastMax) {
                 throw DECLINE;
             }
             v |= (long) (b & 0x7F) << shift;

@@ -22,6 +22,8 @@ import org.apache.avro.SchemaCompatibility;
  * <p>Hot path: the schemas are parsed once, one resolving Avro reader per writer schema and one
  * binary decoder are reused, field positions and Avro patterns are resolved at construction, and a
  * name pattern over JSON or map channels is applied only to a key's first record (with a cache).
+ * {@link #decodeInto} adds a fast path for Avro bodies of the reader schema's own fingerprint that
+ * reads them straight into a reused {@link RowBuffer} and leaves everything else to {@link #decode}.
  * One instance per thread.
  */
 public final class RecordDecoder {

@@ -7,11 +7,9 @@ import static org.junit.jupiter.api.Assertions.assertNotNull;
 import static org.junit.jupiter.api.Assertions.assertNull;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import java.io.ByteArrayOutputStream;
 import java.io.IOException;
 import java.io.UncheckedIOException;
 import java.nio.ByteBuffer;
-import java.nio.ByteOrder;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -25,12 +23,8 @@ import java.util.Random;
 import lariat.config.StageConfig;
 import lariat.schema.StationReading;
 import org.apache.avro.Schema;
-import org.apache.avro.SchemaNormalization;
 import org.apache.avro.generic.GenericData;
-import org.apache.avro.generic.GenericDatumWriter;
 import org.apache.avro.generic.GenericRecord;
-import org.apache.avro.io.BinaryEncoder;
-import org.apache.avro.io.EncoderFactory;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -166,7 +160,7 @@ class DirectAvroReaderTest {
             byte[] v;
             String label;
             if (kind == 0) {
-                v = encode(LOOSE_SCHEMA, good, binary);
+                v = encode(good, binary);
                 label = "valid";
             } else {
                 Hostile h = Hostile.values()[kind - 1];
@@ -230,7 +224,7 @@ class DirectAvroReaderTest {
 
         @SuppressWarnings("unchecked")
         byte[] make(GenericRecord good, boolean binary, Random rnd) {
-            byte[] ok = encode(LOOSE_SCHEMA, good, binary);
+            byte[] ok = encode(good, binary);
             GenericRecord r = copy(good);
             Map<String, Object> ch = (Map<String, Object>) r.get("channels");
             switch (this) {
@@ -282,7 +276,7 @@ class DirectAvroReaderTest {
                 case EXTRA_CHANNEL -> ch.put("spare_" + rnd.nextInt(3), rnd.nextBoolean() ? "text" : 1.0);
                 default -> throw new IllegalStateException(name());
             }
-            return encode(LOOSE_SCHEMA, r, binary);
+            return encode(r, binary);
         }
     }
 
@@ -393,23 +387,9 @@ class DirectAvroReaderTest {
         }
     }
 
-    /** Single-object (marker, fingerprint, body) or plain binary body, by Avro's own writer. */
-    private static byte[] encode(Schema schema, GenericRecord r, boolean binary) {
-        try {
-            ByteArrayOutputStream out = new ByteArrayOutputStream(128);
-            if (!binary) {
-                out.write(0xC3);
-                out.write(0x01);
-                out.write(ByteBuffer.allocate(8).order(ByteOrder.LITTLE_ENDIAN)
-                        .putLong(SchemaNormalization.parsingFingerprint64(schema)).array());
-            }
-            BinaryEncoder e = EncoderFactory.get().binaryEncoder(out, null);
-            new GenericDatumWriter<GenericRecord>(schema).write(r, e);
-            e.flush();
-            return out.toByteArray();
-        } catch (IOException e) {
-            throw new UncheckedIOException(e);
-        }
+    /** Single-object (marker, fingerprint, body) or plain binary body, by Avro's own encoders. */
+    private static byte[] encode(GenericRecord r, boolean binary) {
+        return binary ? CodecFixtures.binary(r) : CodecFixtures.singleObject(r);
     }
 
     /** One random change: a byte flipped, set, inserted or removed, or the tail cut. */
