@@ -22,6 +22,8 @@ import org.apache.avro.SchemaCompatibility;
  * <p>Hot path: the schemas are parsed once, one resolving Avro reader per writer schema and one
  * binary decoder are reused, field positions and Avro patterns are resolved at construction, and a
  * name pattern over JSON or map channels is applied only to a key's first record (with a cache).
+ * {@link #decodeInto} adds a fast path for Avro bodies of the reader schema's own fingerprint that
+ * reads them straight into a reused {@link RowBuffer} and leaves everything else to {@link #decode}.
  * One instance per thread.
  */
 public final class RecordDecoder {
@@ -29,11 +31,14 @@ public final class RecordDecoder {
     private final ValueParser parser;
     private final FieldMapper mapper;
     private final Schema reader;
+    private final DirectAvroReader direct;
+    private long directAccepted;
 
-    private RecordDecoder(ValueParser parser, FieldMapper mapper, Schema reader) {
+    private RecordDecoder(ValueParser parser, FieldMapper mapper, Schema reader, DirectAvroReader direct) {
         this.parser = parser;
         this.mapper = mapper;
         this.reader = reader;
+        this.direct = direct;
     }
 
     /** A decoder whose schema files resolve against the working directory. */
@@ -51,7 +56,7 @@ public final class RecordDecoder {
     public static RecordDecoder create(StageConfig config, Path baseDir) {
         InputFormat format = config.get(StageConfig.INPUT_FORMAT);
         if (format == InputFormat.JSON) {
-            return new RecordDecoder(new JsonRecordParser(), new FieldMapper(plan(config, null)), null);
+            return new RecordDecoder(new JsonRecordParser(), new FieldMapper(plan(config, null)), null, null);
         }
         String readerFile = config.get(StageConfig.INPUT_SCHEMA_FILE);
         Schema reader = readerFile.isEmpty() ? StationReading.getClassSchema()
@@ -62,13 +67,16 @@ public final class RecordDecoder {
             checkResolves(reader, w, f);
             writers.add(w);
         }
-        FieldMapper mapper = new FieldMapper(plan(config, reader));
+        FieldMapper.Plan plan = plan(config, reader);
+        FieldMapper mapper = new FieldMapper(plan);
         if (format == InputFormat.AVRO_BINARY) {
             Schema writer = writers.isEmpty() ? reader : writers.get(0);
-            return new RecordDecoder(new AvroBinaryParser(reader, writer), mapper, reader);
+            return new RecordDecoder(new AvroBinaryParser(reader, writer), mapper, reader,
+                    DirectAvroReader.compile(reader, writer, plan, false));
         }
         writers.add(0, reader);
-        return new RecordDecoder(new AvroSingleObjectParser(reader, writers), mapper, reader);
+        return new RecordDecoder(new AvroSingleObjectParser(reader, writers), mapper, reader,
+                DirectAvroReader.compile(reader, reader, plan, true));
     }
 
     /**
@@ -93,6 +101,40 @@ public final class RecordDecoder {
             return Rejection.of(RejectReason.UNDECODABLE, "record does not decode: " + RejectSignal.message(e),
                     e.getClass().getName());
         }
+    }
+
+    /**
+     * Decodes one record as {@link #decode} does, an accepted one into {@code out} instead of a new
+     * {@link Reading}. Avro records of the reader schema's own fingerprint go through a fast path
+     * compiled at {@link #create} ({@link DirectAvroReader}) that only ever accepts, and declines to
+     * {@link #decode} whatever it does not plainly accept, so outcomes, rejection reasons and details are
+     * those of {@link #decode}.
+     *
+     * @param out modified: holds the record when it is accepted
+     * @return {@code null} when the record is accepted into {@code out}, otherwise its {@link Rejection}
+     *     or {@link Skipped}
+     */
+    public Decoded decodeInto(byte[] recordKey, byte[] value, long timestampMs, KeyLayouts layouts, RowBuffer out) {
+        if (direct != null && value != null && direct.read(recordKey, value, timestampMs, layouts, out)) {
+            directAccepted++;
+            return null;
+        }
+        Decoded d = decode(recordKey, value, timestampMs, layouts);
+        if (d instanceof Reading) {
+            out.fill((Reading) d);
+            return null;
+        }
+        return d;
+    }
+
+    /** How many records the fast path of {@link #decodeInto} accepted (the rest went through {@link #decode}). */
+    long directAccepted() {
+        return directAccepted;
+    }
+
+    /** Whether {@link #decodeInto} has a fast path for this configuration. */
+    boolean hasDirectPath() {
+        return direct != null;
     }
 
     /** The reader schema, or {@code null} for JSON input. */

@@ -2,10 +2,11 @@ package lariat.stage;
 
 import lariat.codec.Decoded;
 import lariat.codec.KeyLayouts;
+import lariat.codec.RowBuffer;
 
 /**
- * Turns one raw input record into a reading, a rejection or a skip; never throws for bad input.
- * {@link lariat.codec.RecordDecoder#decode} is the production implementation.
+ * Turns one raw input record into an accepted row, a rejection or a skip; never throws for bad input.
+ * {@link lariat.codec.RecordDecoder#decodeInto} is the production implementation.
  */
 @FunctionalInterface
 public interface InputDecoder {
@@ -16,6 +17,8 @@ public interface InputDecoder {
      * @param timestampMs the Kafka record timestamp
      * @param layouts     the partition's per-key channel layouts; a new key's layout is added
      *                    when its first record is accepted
+     * @param out         modified: holds the record when it is accepted
+     * @return {@code null} when the record is accepted into {@code out}, otherwise its rejection or skip
      */
-    Decoded decode(byte[] key, byte[] value, long timestampMs, KeyLayouts layouts);
+    Decoded decode(byte[] key, byte[] value, long timestampMs, KeyLayouts layouts, RowBuffer out);
 }

@@ -58,7 +58,7 @@ public final class PartitionReplay {
         }
         StageSettings s = StageAssembly.settings(c);
         RecordDecoder decoder = RecordDecoder.create(c, baseDir);
-        RecordRouter router = new RecordRouter(c.get(StageConfig.FIELD_TARGET), decoder::decode, s);
+        RecordRouter router = new RecordRouter(c.get(StageConfig.FIELD_TARGET), decoder::decodeInto, s);
         ModelRecords records = new ModelRecords(s.inputTopic(), c.configHash(), StageAssembly.buildVersion());
         return new PartitionReplay(partition, router, RefitRecipe.of(c), records, s);
     }

@@ -2,8 +2,8 @@ package lariat.stage;
 
 import lariat.codec.Decoded;
 import lariat.codec.KeyLayouts;
-import lariat.codec.Reading;
 import lariat.codec.Rejection;
+import lariat.codec.RowBuffer;
 import lariat.codec.Skipped;
 
 import java.util.ArrayList;
@@ -47,6 +47,7 @@ final class RecordRouter {
     private final String targetName;
     private final InputDecoder decoder;
     private final StageSettings settings;
+    private final RowBuffer row = RowBuffer.create();
 
     RecordRouter(String targetName, InputDecoder decoder, StageSettings settings) {
         this.targetName = targetName;
@@ -61,7 +62,7 @@ final class RecordRouter {
      */
     Outcome route(PartitionStates states, KeyLayouts layouts, int partition, long offset, byte[] recordKey,
                   byte[] value, long timestampMs) {
-        Decoded d = decoder.decode(recordKey, value, timestampMs, layouts);
+        Decoded d = decoder.decode(recordKey, value, timestampMs, layouts, row);
         if (d instanceof Skipped) {
             return Outcome.SKIPPED;
         }
@@ -69,31 +70,30 @@ final class RecordRouter {
             Rejection x = (Rejection) d;
             return Outcome.rejected(null, x.reason().name(), x.detail(), x.exceptionClass().orElse(null));
         }
-        Reading reading = (Reading) d;
-        String key = reading.key();
-        int owner = states.ownerOf(key);
-        if (owner >= 0 && owner != partition) {
-            return Outcome.rejected(key, DeadLetters.KEY_ON_TWO_PARTITIONS, "key lives on partition " + owner, null);
+        String key = row.key();
+        KeyState state = states.get(key);
+        if (state != null && state.partition() != partition) {
+            return Outcome.rejected(key, DeadLetters.KEY_ON_TWO_PARTITIONS, "key lives on partition "
+                    + state.partition(), null);
         }
-        KeyState state = owner >= 0 ? states.get(key) : null;
-        double[] z = reading.z();
+        double[] z = row.z();
         if (state != null && state.width() != z.length) {
             return Outcome.rejected(key, DeadLetters.WRONG_WIDTH,
                     "key has width " + state.width() + ", record has " + z.length, null);
         }
         boolean fresh = state == null;
         if (fresh) {
-            List<String> names = new ArrayList<>(reading.channels());
+            List<String> names = new ArrayList<>(row.layout().names());
             names.add(targetName);
             state = KeyState.create(key, partition, names.toArray(new String[0]),
                     settings.emptyMoments(names.size()), settings.cvFolds());
         }
         try {
-            if (!state.add(z, reading.weight(), reading.eventTimeMs(), offset)) {
+            if (!state.add(z, row.weight(), row.eventTimeMs(), offset)) {
                 if (fresh) {
                     layouts.remove(key);
                 }
-                return Outcome.rejected(key, DeadLetters.TOO_LATE_FOR_WINDOW, "event time " + reading.eventTimeMs()
+                return Outcome.rejected(key, DeadLetters.TOO_LATE_FOR_WINDOW, "event time " + row.eventTimeMs()
                         + " ms is older than the key's sliding window", null);
             }
         } catch (IllegalArgumentException e) {

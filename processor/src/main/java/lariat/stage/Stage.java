@@ -38,8 +38,8 @@ import java.util.concurrent.TimeUnit;
 /**
  * The stage's loop: Kafka's consume-transform-produce pattern with one transaction per cycle.
  *
- * <p>A cycle polls until a poll returns nothing or {@code cycle.interval.ms} of wall time has
- * passed, routing each record to its key's moments or to a dead letter; then it refits every
+ * <p>A cycle polls until the consumer has caught up with its partitions or {@code cycle.interval.ms}
+ * of wall time has passed, routing each record to its key's moments or to a dead letter; then it refits every
  * key whose refit is due, and in one transaction sends the model versions, alerts, dead
  * letters, a snapshot of every key that changed (plus each partition's position marker) and
  * the consumed offsets with the consumer's group metadata. Wall time only decides when a cycle
@@ -218,6 +218,13 @@ public final class Stage implements AutoCloseable {
         }
     }
 
+    /**
+     * Polls and routes until {@code cycle.interval.ms} of wall time has passed, or earlier once the
+     * consumer has caught up: a poll returned nothing and no assigned partition has records beyond
+     * the position ({@link #caughtUp}). An empty poll while records are still waiting only means the
+     * next fetch has not arrived, so the cycle goes on with a poll that returns as soon as it does;
+     * under a backlog a cycle therefore lasts the configured interval instead of one fetch.
+     */
     private void pollCycle() {
         long start = System.nanoTime();
         long budget = TimeUnit.MILLISECONDS.toNanos(s.cycleIntervalMs());
@@ -227,11 +234,27 @@ public final class Stage implements AutoCloseable {
             for (ConsumerRecord<byte[], byte[]> r : batch) {
                 route(r);
             }
-            if (batch.isEmpty() || System.nanoTime() - start >= budget) {
+            long left = budget - (System.nanoTime() - start);
+            if (left <= 0 || (batch.isEmpty() && caughtUp())) {
                 return;
             }
-            wait = Duration.ZERO;
+            wait = batch.isEmpty() ? Duration.ofNanos(Math.min(left, IDLE_POLL.toNanos())) : Duration.ZERO;
         }
+    }
+
+    /**
+     * Whether no assigned partition is known to hold records beyond the consumer's position (the lag
+     * of the last fetch: last stable offset minus position under read_committed); a partition whose
+     * lag is not known counts as caught up.
+     */
+    private boolean caughtUp() {
+        for (TopicPartition tp : assigned) {
+            OptionalLong lag = consumer.currentLag(tp);
+            if (lag.isPresent() && lag.getAsLong() > 0) {
+                return false;
+            }
+        }
+        return true;
     }
 
     /** Skippable failures end here: a bad record becomes a dead letter, the moments untouched. */

@@ -30,7 +30,7 @@ public final class StageAssembly {
         StageMetrics metrics = new StageMetrics();
         ModelRecords records = new ModelRecords(s.inputTopic(), c.configHash(), buildVersion());
         PathRefitter refitter = new PathRefitter(recipe, records, s, System::currentTimeMillis, metrics);
-        return new Stage(s, c.get(StageConfig.FIELD_TARGET), decoder::decode, refitter, new KafkaClientFactory(s),
+        return new Stage(s, c.get(StageConfig.FIELD_TARGET), decoder::decodeInto, refitter, new KafkaClientFactory(s),
                 metrics);
     }
 
