@@ -19,7 +19,9 @@ import java.util.Map;
  * Real Kafka clients from the pass-through client properties, with the settings exactly-once
  * needs forced on top (a user value that conflicts is replaced and logged): read_committed,
  * manual commits, the group id, transactional id {@code stage.id-stage.instance}, idempotence,
- * {@code acks=all}, byte-array (de)serializers.
+ * {@code acks=all}, byte-array (de)serializers. Defaults a user value overrides: consumer
+ * {@code auto.offset.reset=earliest}; producer {@code linger.ms=5}, {@code retry.backoff.ms=10} and
+ * {@code max.request.size} from the snapshot message size.
  */
 public final class KafkaClientFactory implements ClientFactory {
 
@@ -66,6 +68,11 @@ public final class KafkaClientFactory implements ClientFactory {
         force(p, ProducerConfig.ACKS_CONFIG, "all");
         p.putIfAbsent(ProducerConfig.MAX_REQUEST_SIZE_CONFIG, s.snapshotMaxMessageBytes());
         p.putIfAbsent(ProducerConfig.LINGER_MS_CONFIG, 5);
+        // Each cycle commits a transaction; while the coordinator still writes the previous commit's
+        // markers it answers CONCURRENT_TRANSACTIONS, and the client's default first backoff of 100 ms
+        // then adds about that much to the next commit. Backoff still grows exponentially up to
+        // retry.backoff.max.ms (1 s by default) during an outage.
+        p.putIfAbsent(ProducerConfig.RETRY_BACKOFF_MS_CONFIG, 10);
         p.put(ProducerConfig.CLIENT_ID_CONFIG, s.transactionalId() + "-producer");
         return new KafkaProducer<>(p, new ByteArraySerializer(), new ByteArraySerializer());
     }
