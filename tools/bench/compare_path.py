@@ -229,10 +229,12 @@ def main():
         print()
         print("Path refit from a prebuilt Gram (rows n = 2p), median seconds; ratio = library_s / ours_s")
         print(f"{'p':>5} {'n':>5} {'steps':>5} {'ours_k':>6} {'lib_k':>6} {'rep':>3} {'ours_s':>10} "
-              f"{'sklearn_s':>10} {'ratio':>7} {'cpu_rat':>7} {'target':>7} {'':>4} {'proto_s':>9} {'proto_rat':>9}")
+              f"{'sklearn_s':>10} {'ratio':>7} {'cpu_rat':>7} {'target':>7} {'':>4}"
+              + (f" {'proto_s':>9} {'proto_rat':>9}" if args.prototype else ""))
         for r in prows:
             print(f"{r[0]:>5} {r[1]:>5} {r[2]:>5} {r[3]:>6} {r[4]:>6} {r[5]:>3} {r[6]:>10.5f} {r[7]:>10.5f} "
-                  f"{r[8]:>7.2f} {r[9]:>7.2f} {r[10]:>7} {r[11]:>4} {r[12]:>9.5f} {r[13]:>9.2f}")
+                  f"{r[8]:>7.2f} {r[9]:>7.2f} {r[10]:>7} {r[11]:>4}"
+                  + (f" {r[12]:>9.5f} {r[13]:>9.2f}" if args.prototype else ""))
     if args.only != "path":
         print()
         print("Moments update, records per second; ratio = ours / numpy X.T @ X")
@@ -246,8 +248,8 @@ def main():
     print(f"load average at end: {load_end[0]:.2f} {load_end[1]:.2f} {load_end[2]:.2f}; "
           f"wall time {time.time() - start:.0f} s")
     print("ours_k / lib_k: steps each path actually took; ratio: of median wall times; cpu_rat: of median CPU times "
-          "(ours: the benchmark thread for the path, all Java threads for the moments; path library: its calling thread, so BLAS helper threads that spin or work are not counted; numpy X'X: the whole process, BLAS threads included); proto_*: the "
-          "prototype kernel (--prototype), ratio library_s / proto_s.")
+          "(ours: the benchmark thread for the path, all Java threads for the moments; path library: its calling thread, so BLAS helper threads that spin or work are not counted; numpy X'X: the whole process, BLAS threads included)"
+          + ("; proto_*: the prototype kernel (--prototype), ratio library_s / proto_s." if args.prototype else "."))
 
 
 if __name__ == "__main__":
