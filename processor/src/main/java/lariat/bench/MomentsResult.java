@@ -4,7 +4,7 @@ import java.util.LinkedHashMap;
 import java.util.Map;
 
 /** The outcome of one moments benchmark: shape, block size, threads and timings of the full passes. Immutable. */
-public final class MomentsResult {
+public final class MomentsResult implements BenchReport {
 
     private final int features;
     private final int rows;

@@ -7,7 +7,7 @@ import java.util.Map;
  * The outcome of one path benchmark: the shape, the steps the path actually took (knots − 1), the final
  * active count, why the path stopped and the refit timings. Immutable.
  */
-public final class PathResult {
+public final class PathResult implements BenchReport {
 
     private final int features;
     private final int rows;

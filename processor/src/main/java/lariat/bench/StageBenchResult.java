@@ -10,7 +10,7 @@ import java.util.Map;
  * plain consumer's and the stage's elapsed and process CPU time. The reported figures are the
  * last round's. Immutable.
  */
-public final class StageBenchResult {
+public final class StageBenchResult implements BenchReport {
 
     /** One timed pass over every input record. */
     static final class Phase {

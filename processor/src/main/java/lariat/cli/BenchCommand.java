@@ -7,12 +7,10 @@ import java.io.IOException;
 import java.io.PrintWriter;
 import java.util.Map;
 import java.util.concurrent.Callable;
+import lariat.bench.BenchReport;
 import lariat.bench.MomentsBench;
-import lariat.bench.MomentsResult;
 import lariat.bench.PathBench;
-import lariat.bench.PathResult;
 import lariat.bench.StageBench;
-import lariat.bench.StageBenchResult;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
@@ -35,6 +33,40 @@ public final class BenchCommand implements Runnable {
         if (out != null) {
             new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT).writeValue(out, json);
         }
+    }
+
+    /** A benchmark's run: may throw {@link IllegalArgumentException} naming a bad option value. */
+    interface Measurement {
+        BenchReport run() throws InterruptedException;
+    }
+
+    /** The options every benchmark takes. */
+    static final class Common {
+        @Option(names = "--seed", defaultValue = "1", description = "Random seed (default: ${DEFAULT-VALUE}).")
+        long seed;
+
+        @Option(names = "--json", paramLabel = "OUT", description = "Write the result as JSON to this file.")
+        File json;
+    }
+
+    /**
+     * Runs one benchmark, prints its table and writes its JSON; a bad option value gets one line on stderr
+     * naming the subcommand, and exit code 2.
+     */
+    static int report(CommandLine.Model.CommandSpec spec, Common common, Measurement measurement)
+            throws IOException, InterruptedException {
+        BenchReport r;
+        try {
+            r = measurement.run();
+        } catch (IllegalArgumentException e) {
+            spec.commandLine().getErr().println("bench " + spec.name() + ": " + e.getMessage());
+            return 2;
+        }
+        PrintWriter out = spec.commandLine().getOut();
+        out.print(r.table());
+        out.flush();
+        writeJson(common.json, r.toJson());
+        return 0;
     }
 
     /** {@code lariat bench path}. */
@@ -61,30 +93,17 @@ public final class BenchCommand implements Runnable {
                 + "none (default: ${DEFAULT-VALUE}).")
         double warmupSeconds;
 
-        @Option(names = "--seed", defaultValue = "1", description = "Random seed (default: ${DEFAULT-VALUE}).")
-        long seed;
-
         @Option(names = "--prototype", description = "Time the benchmark package's contiguous-rows lasso kernel "
                 + "prototype instead of the path engine.")
         boolean prototype;
 
-        @Option(names = "--json", description = "Write the result as JSON to this file.")
-        File json;
+        @CommandLine.Mixin
+        Common common;
 
         @Override
-        public Integer call() throws IOException {
-            PathResult r;
-            try {
-                r = PathBench.run(features, rows, steps, repeat, seed, warmupSeconds, prototype);
-            } catch (IllegalArgumentException e) {
-                spec.commandLine().getErr().println("bench path: " + e.getMessage());
-                return 2;
-            }
-            PrintWriter out = spec.commandLine().getOut();
-            out.print(r.table());
-            out.flush();
-            writeJson(json, r.toJson());
-            return 0;
+        public Integer call() throws IOException, InterruptedException {
+            return report(spec, common, () -> PathBench.run(features, rows, steps, repeat, common.seed, warmupSeconds,
+                    prototype));
         }
     }
 
@@ -108,31 +127,17 @@ public final class BenchCommand implements Runnable {
         @Option(names = "--repeat", defaultValue = "3", description = "Timed passes (default: ${DEFAULT-VALUE}).")
         int repeat;
 
-        @Option(names = "--seed", defaultValue = "1", description = "Random seed (default: ${DEFAULT-VALUE}).")
-        long seed;
-
         @Option(names = "--threads", description = "Threads a block merge may use, the benchmark thread included "
                 + "(default: the system property lariat.moments.threads, else the available processors).")
         Integer threads;
 
-        @Option(names = "--json", description = "Write the result as JSON to this file.")
-        File json;
+        @CommandLine.Mixin
+        Common common;
 
         @Override
-        public Integer call() throws IOException {
-            MomentsResult r;
-            try {
-                int t = threads != null ? threads : lariat.moments.Moments.defaultThreads();
-                r = MomentsBench.run(features, rows, blockSize, repeat, seed, t);
-            } catch (IllegalArgumentException e) {
-                spec.commandLine().getErr().println("bench moments: " + e.getMessage());
-                return 2;
-            }
-            PrintWriter out = spec.commandLine().getOut();
-            out.print(r.table());
-            out.flush();
-            writeJson(json, r.toJson());
-            return 0;
+        public Integer call() throws IOException, InterruptedException {
+            int t = threads != null ? threads : lariat.moments.Moments.defaultThreads();
+            return report(spec, common, () -> MomentsBench.run(features, rows, blockSize, repeat, common.seed, t));
         }
     }
 
@@ -164,29 +169,16 @@ public final class BenchCommand implements Runnable {
                 + "is reported (default: ${DEFAULT-VALUE}).")
         int rounds;
 
-        @Option(names = "--seed", defaultValue = "1", description = "Random seed (default: ${DEFAULT-VALUE}).")
-        long seed;
-
         @Option(names = "--bootstrap-servers", description = "Use this cluster instead of an embedded broker.")
         String bootstrapServers;
 
-        @Option(names = "--json", description = "Write the result as JSON to this file.")
-        File json;
+        @CommandLine.Mixin
+        Common common;
 
         @Override
         public Integer call() throws IOException, InterruptedException {
-            StageBenchResult r;
-            try {
-                r = StageBench.run(features, keys, records, partitions, rounds, seed, bootstrapServers);
-            } catch (IllegalArgumentException e) {
-                spec.commandLine().getErr().println("bench stage: " + e.getMessage());
-                return 2;
-            }
-            PrintWriter out = spec.commandLine().getOut();
-            out.print(r.table());
-            out.flush();
-            writeJson(json, r.toJson());
-            return 0;
+            return report(spec, common, () -> StageBench.run(features, keys, records, partitions, rounds, common.seed,
+                    bootstrapServers));
         }
     }
 }
