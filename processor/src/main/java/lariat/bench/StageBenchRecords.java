@@ -134,17 +134,9 @@ final class StageBenchRecords {
         }
     }
 
-    /** A standard normal deviate by the polar method (Marsaglia &amp; Bray 1964, SIAM Review 6(3)); one of each pair. */
+    /** A standard normal deviate: the first of a {@link SyntheticRows#polarPair} pair (the second is dropped). */
     private static double gaussian(SplittableRandom random) {
-        double u;
-        double v;
-        double s;
-        do {
-            u = 2 * random.nextDouble() - 1;
-            v = 2 * random.nextDouble() - 1;
-            s = u * u + v * v;
-        } while (s >= 1 || s == 0);
-        return u * Math.sqrt(-2 * Math.log(s) / s);
+        return SyntheticRows.polarPair(random, new double[1]);
     }
 
     private static void positive(String name, int value) {

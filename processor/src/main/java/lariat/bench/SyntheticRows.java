@@ -82,6 +82,7 @@ final class SyntheticRows {
     /** Standard Gaussian variates by the polar method, one cached spare. */
     private static final class Gaussian {
         private final SplittableRandom rnd;
+        private final double[] pair = new double[1];
         private double spare;
         private boolean hasSpare;
 
@@ -94,18 +95,28 @@ final class SyntheticRows {
                 hasSpare = false;
                 return spare;
             }
-            double u;
-            double v;
-            double s;
-            do {
-                u = 2 * rnd.nextDouble() - 1;
-                v = 2 * rnd.nextDouble() - 1;
-                s = u * u + v * v;
-            } while (s >= 1 || s == 0);
-            double f = Math.sqrt(-2 * Math.log(s) / s);
-            spare = v * f;
+            double first = polarPair(rnd, pair);
+            spare = pair[0];
             hasSpare = true;
-            return u * f;
+            return first;
         }
+    }
+
+    /**
+     * A pair of independent standard normal deviates by the polar method (Marsaglia &amp; Bray 1964, SIAM
+     * Review 6(3)): returns the first and stores the second in {@code second[0]}.
+     */
+    static double polarPair(SplittableRandom rnd, double[] second) {
+        double u;
+        double v;
+        double s;
+        do {
+            u = 2 * rnd.nextDouble() - 1;
+            v = 2 * rnd.nextDouble() - 1;
+            s = u * u + v * v;
+        } while (s >= 1 || s == 0);
+        double f = Math.sqrt(-2 * Math.log(s) / s);
+        second[0] = v * f;
+        return u * f;
     }
 }
