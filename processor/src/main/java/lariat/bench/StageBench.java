@@ -1,6 +1,7 @@
 package lariat.bench;
 
 import java.lang.management.ManagementFactory;
+import java.lang.management.ThreadMXBean;
 import java.nio.file.Path;
 import java.time.Duration;
 import java.util.ArrayList;
@@ -144,6 +145,7 @@ public final class StageBench {
             c.seekToBeginning(partitions);
             long deadline = System.nanoTime() + RUN_TIMEOUT.toNanos();
             long cpu0 = processCpuNanos();
+            long poll0 = CpuClock.nanos();
             long t0 = System.nanoTime();
             long t1 = t0;
             long bytes = 0;
@@ -163,7 +165,9 @@ public final class StageBench {
             if (bytes == 0) {
                 throw new IllegalStateException("the plain consumer read only empty values");
             }
-            return StageBenchResult.Phase.of(records, (t1 - t0) / 1e9, (processCpuNanos() - cpu0) / 1e9, 0);
+            long poll1 = CpuClock.nanos();
+            return StageBenchResult.Phase.of(records, (t1 - t0) / 1e9, (processCpuNanos() - cpu0) / 1e9,
+                    (poll1 - poll0) / 1e9, 0);
         }
     }
 
@@ -200,8 +204,10 @@ public final class StageBench {
         }
         long t0 = System.nanoTime();
         long cpu0 = processCpuNanos();
+        long poll0 = threadCpuNanos(loop);
         boolean finished = atEnd.await(RUN_TIMEOUT.toMillis(), TimeUnit.MILLISECONDS);
         long cpu1 = processCpuNanos();
+        long poll1 = threadCpuNanos(loop);
         stage.shutdown();
         stage.awaitStopped(RUN_TIMEOUT.toMillis());
         if (!finished) {
@@ -213,7 +219,7 @@ public final class StageBench {
             throw new IllegalStateException("the stage consumed " + in + " records, expected " + input.count());
         }
         return StageBenchResult.Phase.of(input.count(), (endNanos[0] - t0) / 1e9, (cpu1 - cpu0) / 1e9,
-                stage.metrics().transactionsCommitted());
+                (poll1 - poll0) / 1e9, stage.metrics().transactionsCommitted());
     }
 
     private static boolean reachedEnd(Map<Integer, Long> committed, Map<TopicPartition, Long> ends) {
@@ -250,6 +256,12 @@ public final class StageBench {
             return os.getProcessCpuTime();
         }
         return 0;
+    }
+
+    /** CPU time of {@code thread} in nanoseconds, or 0 when the JVM cannot measure it. */
+    private static long threadCpuNanos(Thread thread) {
+        ThreadMXBean mx = ManagementFactory.getThreadMXBean();
+        return mx.isThreadCpuTimeSupported() ? Math.max(0L, mx.getThreadCpuTime(thread.getId())) : 0L;
     }
 
     private static double loadAverage() {

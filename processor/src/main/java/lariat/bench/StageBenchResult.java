@@ -17,24 +17,35 @@ public final class StageBenchResult implements BenchReport {
         final int records;
         final double seconds;
         final double cpuSeconds;
+        final double pollCpuSeconds;
         final long transactions;
 
-        private Phase(int records, double seconds, double cpuSeconds, long transactions) {
+        private Phase(int records, double seconds, double cpuSeconds, double pollCpuSeconds, long transactions) {
             this.records = records;
             this.seconds = seconds;
             this.cpuSeconds = cpuSeconds;
+            this.pollCpuSeconds = pollCpuSeconds;
             this.transactions = transactions;
         }
 
-        static Phase of(int records, double seconds, double cpuSeconds, long transactions) {
+        /**
+         * A pass of {@code records} records that took {@code seconds} of wall time, {@code cpuSeconds} of
+         * process CPU time and {@code pollCpuSeconds} of CPU time on the thread that called poll.
+         */
+        static Phase of(int records, double seconds, double cpuSeconds, double pollCpuSeconds, long transactions) {
             if (!(seconds > 0)) {
                 throw new IllegalArgumentException("seconds must be positive, got " + seconds);
             }
-            return new Phase(records, seconds, cpuSeconds, transactions);
+            return new Phase(records, seconds, cpuSeconds, pollCpuSeconds, transactions);
         }
 
         double recordsPerSecond() {
             return records / seconds;
+        }
+
+        /** CPU time of the polling thread per record, in microseconds. */
+        double pollMicrosPerRecord() {
+            return pollCpuSeconds / records * 1e6;
         }
     }
 
@@ -54,6 +65,14 @@ public final class StageBenchResult implements BenchReport {
 
         double ratio() {
             return stage.recordsPerSecond() / consumer.recordsPerSecond();
+        }
+
+        /**
+         * The plain consumer's polling-thread CPU per record over the stage's: the throughput ratio the two
+         * would reach if each polling thread had a processor to itself and the broker kept up.
+         */
+        double pollCpuRatio() {
+            return consumer.pollMicrosPerRecord() / stage.pollMicrosPerRecord();
         }
     }
 
@@ -112,6 +131,9 @@ public final class StageBenchResult implements BenchReport {
         m.put("stage_records_per_s", stageRecordsPerSecond());
         m.put("consumer_records_per_s", consumerRecordsPerSecond());
         m.put("ratio", last().ratio());
+        m.put("consumer_poll_cpu_us_per_record", last().consumer.pollMicrosPerRecord());
+        m.put("stage_poll_cpu_us_per_record", last().stage.pollMicrosPerRecord());
+        m.put("poll_cpu_ratio", last().pollCpuRatio());
         m.put("features", features);
         m.put("keys", keys);
         m.put("records", records);
@@ -126,12 +148,15 @@ public final class StageBenchResult implements BenchReport {
             Map<String, Object> o = new LinkedHashMap<>();
             o.put("consumer_s", r.consumer.seconds);
             o.put("consumer_cpu_s", r.consumer.cpuSeconds);
+            o.put("consumer_poll_cpu_s", r.consumer.pollCpuSeconds);
             o.put("consumer_records_per_s", r.consumer.recordsPerSecond());
             o.put("stage_s", r.stage.seconds);
             o.put("stage_cpu_s", r.stage.cpuSeconds);
+            o.put("stage_poll_cpu_s", r.stage.pollCpuSeconds);
             o.put("stage_records_per_s", r.stage.recordsPerSecond());
             o.put("stage_transactions", r.stage.transactions);
             o.put("ratio", r.ratio());
+            o.put("poll_cpu_ratio", r.pollCpuRatio());
             all.add(o);
         }
         m.put("rounds", all);
@@ -143,19 +168,22 @@ public final class StageBenchResult implements BenchReport {
         StringBuilder b = new StringBuilder();
         b.append(String.format("features %d, keys %d, records %d, partitions %d, mean value %.0f bytes%n", features,
                 keys, records, partitions, meanValueBytes));
-        b.append(String.format("%6s %-9s %10s %10s %15s %13s %7s%n", "round", "reader", "elapsed_s", "cpu_s",
-                "records_per_s", "transactions", "ratio"));
+        b.append(String.format("%6s %-9s %10s %10s %12s %15s %13s %7s %9s%n", "round", "reader", "elapsed_s",
+                "cpu_s", "poll_us_rec", "records_per_s", "transactions", "ratio", "cpu_ratio"));
         for (int i = 0; i < rounds.size(); i++) {
             Round r = rounds.get(i);
             String mark = i == rounds.size() - 1 ? "*" : "";
-            b.append(String.format("%6s %-9s %10.3f %10.3f %15.1f %13s %7s%n", (i + 1) + mark, "consumer",
-                    r.consumer.seconds, r.consumer.cpuSeconds, r.consumer.recordsPerSecond(), "-", ""));
-            b.append(String.format("%6s %-9s %10.3f %10.3f %15.1f %13d %7.3f%n", (i + 1) + mark, "stage",
-                    r.stage.seconds, r.stage.cpuSeconds, r.stage.recordsPerSecond(), r.stage.transactions,
-                    r.ratio()));
+            b.append(String.format("%6s %-9s %10.3f %10.3f %12.3f %15.1f %13s %7s %9s%n", (i + 1) + mark, "consumer",
+                    r.consumer.seconds, r.consumer.cpuSeconds, r.consumer.pollMicrosPerRecord(),
+                    r.consumer.recordsPerSecond(), "-", "", ""));
+            b.append(String.format("%6s %-9s %10.3f %10.3f %12.3f %15.1f %13d %7.3f %9.3f%n", (i + 1) + mark, "stage",
+                    r.stage.seconds, r.stage.cpuSeconds, r.stage.pollMicrosPerRecord(), r.stage.recordsPerSecond(),
+                    r.stage.transactions, r.ratio(), r.pollCpuRatio()));
         }
         b.append(String.format("* reported round; ratio = stage / consumer records_per_s; cpu_s = whole process "
-                + "(broker included when embedded)%nprocessors %d, load average %.2f before, %.2f after%n",
+                + "(broker included when embedded); poll_us_rec = CPU time of the thread that polls, per record; "
+                + "cpu_ratio = consumer / stage poll_us_rec, the throughput ratio when each polling thread has a "
+                + "processor to itself and the broker keeps up%nprocessors %d, load average %.2f before, %.2f after%n",
                 processors, loadBefore, loadAfter));
         return b.toString();
     }
