@@ -69,8 +69,12 @@ public final class Moments {
     private static final int PANEL_VALUES = 1 << 19;
     /** System property giving the default {@link #threads()} of new moments. */
     public static final String THREADS_PROPERTY = "lariat.moments.threads";
-    /** Widths up to this always update on the calling thread (a stage runs many small keys on one thread). */
-    static final int SERIAL_MAX_WIDTH = 64;
+    /**
+     * Widths up to this always update on the calling thread: a stage runs many small keys on one thread, and
+     * measured on 2 processors a second thread made widths 101 and 201 slower and broke even near 300
+     * (DEVELOPERS.md, "Moments: threads").
+     */
+    static final int SERIAL_MAX_WIDTH = 256;
     /** Multiply-adds of one panel below which the block update stays on the calling thread. */
     private static final long SERIAL_MAX_WORK = 1L << 19;
     /** Block values (rows · width) below which the mean and centering passes stay on the calling thread. */

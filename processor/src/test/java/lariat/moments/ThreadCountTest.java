@@ -3,6 +3,7 @@ package lariat.moments;
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.ArrayList;
 import java.util.List;
@@ -26,7 +27,8 @@ class ThreadCountTest {
     @Test
     void addBlock_wideBlocksOnOneTwoOrThreeThreads_sameBytesAndEqualTwoPass() {
         Random rnd = new Random(SEED);
-        for (int d : new int[] {65, 101, 258}) {
+        for (int d : new int[] {257, 300, 386}) {
+            assertTrue(d > Moments.SERIAL_MAX_WIDTH, "width " + d + " must take the threaded path");
             int n = 600;
             RandomRows data = RandomRows.of(rnd, n, d);
             byte[] first = null;
@@ -48,7 +50,8 @@ class ThreadCountTest {
     @Test
     void momentStream_wideRows_sameFingerprintOnEveryThreadCountAndEqualTwoPass() {
         Random rnd = new Random(SEED + 1);
-        int d = 101;
+        int d = 257;
+        assertTrue(d > Moments.SERIAL_MAX_WIDTH, "width " + d + " must take the threaded path");
         RandomRows data = RandomRows.of(rnd, 900, d);
         for (double halfLife : new double[] {Double.POSITIVE_INFINITY, 2_000.0}) {
             String first = null;
@@ -76,7 +79,8 @@ class ThreadCountTest {
     @Test
     void addBlock_twoCallersSharingTheWorkers_sameBytesAsOneThread() throws Exception {
         Random rnd = new Random(SEED + 2);
-        int d = 120;
+        int d = 260;
+        assertTrue(d > Moments.SERIAL_MAX_WIDTH, "width " + d + " must take the threaded path");
         int n = 512;
         RandomRows data = RandomRows.of(rnd, n, d);
         double[] rows = data.flat(0, n);
