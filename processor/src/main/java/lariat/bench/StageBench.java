@@ -248,6 +248,7 @@ public final class StageBench {
         p.put("alert.topic", id + ".alerts");
         p.put("snapshot.topic", id + ".snapshots");
         p.put("deadletter.topic", id + ".deadletters");
+        p.put("claim.topic", id + ".claims");
         return p;
     }
 

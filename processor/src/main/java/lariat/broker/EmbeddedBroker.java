@@ -224,6 +224,10 @@ public final class EmbeddedBroker implements AutoCloseable {
         }
     }
 
+    /**
+     * A port nothing listens on now; two calls may return the same port (the first socket is closed
+     * before the second binds), so a caller that needs two distinct ports compares them.
+     */
     private static int freePort() {
         try (ServerSocket socket = new ServerSocket(0, 0, InetAddress.getByName(KraftNodeProperties.HOST))) {
             socket.setReuseAddress(true);
@@ -321,8 +325,12 @@ public final class EmbeddedBroker implements AutoCloseable {
             } catch (IOException e) {
                 throw new UncheckedIOException("cannot create the broker data folder " + dataDir, e);
             }
-            EmbeddedBroker broker = new EmbeddedBroker(port == 0 ? freePort() : port, freePort(), dir,
-                    owns, startTimeout);
+            int clientPort = port == 0 ? freePort() : port;
+            int controllerPort = freePort();
+            while (controllerPort == clientPort) {
+                controllerPort = freePort();
+            }
+            EmbeddedBroker broker = new EmbeddedBroker(clientPort, controllerPort, dir, owns, startTimeout);
             boolean started = false;
             try {
                 broker.launch();

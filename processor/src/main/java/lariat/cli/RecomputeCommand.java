@@ -91,7 +91,8 @@ public final class RecomputeCommand implements Callable<Integer> {
             StageConfig c = StageConfig.load(config);
             String published = publishedTopic != null ? publishedTopic : c.get(StageConfig.MODEL_TOPIC);
             Set<String> live = Set.of(published, c.get(StageConfig.MODEL_TOPIC), c.get(StageConfig.INPUT_TOPIC),
-                    c.get(StageConfig.ALERT_TOPIC), c.get(StageConfig.SNAPSHOT_TOPIC), c.get(StageConfig.DEADLETTER_TOPIC));
+                    c.get(StageConfig.ALERT_TOPIC), c.get(StageConfig.SNAPSHOT_TOPIC), c.get(StageConfig.DEADLETTER_TOPIC),
+                    c.get(StageConfig.CLAIM_TOPIC));
             if (outputTopic != null && live.contains(outputTopic)) {
                 err.println("--output-topic: " + outputTopic + " is a live topic of the configuration; choose another");
                 return 2;

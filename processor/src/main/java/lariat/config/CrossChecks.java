@@ -105,7 +105,8 @@ final class CrossChecks {
 
     private void topics() {
         Map<String, ConfigKey<String>> seen = new LinkedHashMap<>();
-        for (ConfigKey<String> k : List.of(INPUT_TOPIC, MODEL_TOPIC, ALERT_TOPIC, SNAPSHOT_TOPIC, DEADLETTER_TOPIC)) {
+        for (ConfigKey<String> k : List.of(INPUT_TOPIC, MODEL_TOPIC, ALERT_TOPIC, SNAPSHOT_TOPIC, DEADLETTER_TOPIC,
+                CLAIM_TOPIC)) {
             ConfigKey<String> other = seen.putIfAbsent(v(k), k);
             if (other != null) {
                 errors.add(other + ", " + k + ": must be different topics, both got " + v(k));

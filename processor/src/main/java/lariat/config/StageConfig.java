@@ -139,6 +139,8 @@ public final class StageConfig {
             "Compacted topic of per-key state snapshots, co-partitioned with the input.");
     public static final ConfigKey<String> DEADLETTER_TOPIC = topic("deadletter.topic", "lariat.deadletters",
             "Topic of rejected input records (original bytes, reason headers).");
+    public static final ConfigKey<String> CLAIM_TOPIC = topic("claim.topic", "lariat.claims",
+            "Compacted one-partition topic of key claims; a key's earliest claim names the partition that owns it.");
     public static final ConfigKey<Integer> SNAPSHOT_CHUNK_BYTES = intRange("snapshot.chunk.bytes", "524288", 1024,
             64 << 20, "Largest state bytes in one snapshot chunk record.", false);
     public static final ConfigKey<Integer> ALERT_PERSIST_REFITS = intRange("alert.persist.refits", "1", 1, 1000,
@@ -170,7 +172,8 @@ public final class StageConfig {
             PATH_MIN_RELATIVE_PENALTY, PATH_MAX_R2, PATH_COLLINEAR_TOLERANCE,
             SELECT_RULE, SELECT_RELATIVE_PENALTY, SELECT_MAX_ACTIVE, SELECT_TARGET_R2, SELECT_CV_FOLDS,
             SELECT_CV_ONE_SE, SELECT_REFIT,
-            MODEL_TOPIC, ALERT_TOPIC, SNAPSHOT_TOPIC, DEADLETTER_TOPIC, SNAPSHOT_CHUNK_BYTES, ALERT_PERSIST_REFITS,
+            MODEL_TOPIC, ALERT_TOPIC, SNAPSHOT_TOPIC, DEADLETTER_TOPIC, CLAIM_TOPIC, SNAPSHOT_CHUNK_BYTES,
+            ALERT_PERSIST_REFITS,
             STAGE_ID, STAGE_INSTANCE, GROUP_ID, METRICS_PORT, SHUTDOWN_TIMEOUT_MS);
 
     private static final Map<String, ConfigKey<?>> BY_NAME = byName();

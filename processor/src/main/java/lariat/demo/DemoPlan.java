@@ -102,6 +102,7 @@ public final class DemoPlan {
         p.put("alert.topic", alertTopic());
         p.put("snapshot.topic", "lariat-demo-" + runId + ".snapshots");
         p.put("deadletter.topic", "lariat-demo-" + runId + ".deadletters");
+        p.put("claim.topic", "lariat-demo-" + runId + ".claims");
         p.put("stage.id", "lariat-demo-" + runId);
         p.put("moments.block.records", "60");
         p.put("forget.half.life.ms", Long.toString(Duration.ofHours(HALF_LIFE_HOURS).toMillis()));

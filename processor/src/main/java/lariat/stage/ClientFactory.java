@@ -16,6 +16,9 @@ public interface ClientFactory {
     /** A read_committed consumer without a group, for reading snapshot partitions by assignment. */
     Consumer<byte[], byte[]> restoreConsumer();
 
+    /** A read_committed consumer without a group, for reading the claims topic by assignment. */
+    Consumer<byte[], byte[]> claimConsumer();
+
     /** A transactional, idempotent producer with byte-array serializers; transactions not yet initialised. */
     Producer<byte[], byte[]> producer();
 

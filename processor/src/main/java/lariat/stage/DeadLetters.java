@@ -22,7 +22,10 @@ public final class DeadLetters {
     public static final String SOURCE_OFFSET = "lariat.source.offset";
     public static final String SOURCE_TIMESTAMP = "lariat.source.timestamp";
 
-    /** Reason for a record whose model key already lives on another input partition. */
+    /**
+     * Reason for a record whose model key already lives on another input partition of this instance, or
+     * that the claims topic gives to another partition (whichever instance owns it).
+     */
     public static final String KEY_ON_TWO_PARTITIONS = "KEY_ON_TWO_PARTITIONS";
     /** Reason for a record whose width differs from its key's. */
     public static final String WRONG_WIDTH = "WRONG_WIDTH";

@@ -46,16 +46,12 @@ public final class KafkaClientFactory implements ClientFactory {
 
     @Override
     public Consumer<byte[], byte[]> restoreConsumer() {
-        Map<String, Object> p = consumer();
-        p.remove(ConsumerConfig.GROUP_ID_CONFIG);
-        p.remove(ConsumerConfig.GROUP_INSTANCE_ID_CONFIG);
-        p.remove(ConsumerConfig.GROUP_PROTOCOL_CONFIG);
-        force(p, ConsumerConfig.ISOLATION_LEVEL_CONFIG, "read_committed");
-        p.put(ConsumerConfig.ENABLE_AUTO_COMMIT_CONFIG, "false");
-        p.put(ConsumerConfig.AUTO_OFFSET_RESET_CONFIG, "earliest");
-        p.put(ConsumerConfig.MAX_PARTITION_FETCH_BYTES_CONFIG, Math.max(s.snapshotMaxMessageBytes(), 1 << 20));
-        p.put(ConsumerConfig.CLIENT_ID_CONFIG, s.transactionalId() + "-restore");
-        return new KafkaConsumer<>(p, new ByteArrayDeserializer(), new ByteArrayDeserializer());
+        return ungrouped("-restore");
+    }
+
+    @Override
+    public Consumer<byte[], byte[]> claimConsumer() {
+        return ungrouped("-claims");
     }
 
     @Override
@@ -82,6 +78,20 @@ public final class KafkaClientFactory implements ClientFactory {
         Map<String, Object> p = s.adminProperties();
         p.put(AdminClientConfig.CLIENT_ID_CONFIG, s.transactionalId() + "-admin");
         return Admin.create(p);
+    }
+
+    /** A read_committed consumer without a group, reading from the earliest offset, client id suffixed. */
+    private Consumer<byte[], byte[]> ungrouped(String clientIdSuffix) {
+        Map<String, Object> p = consumer();
+        p.remove(ConsumerConfig.GROUP_ID_CONFIG);
+        p.remove(ConsumerConfig.GROUP_INSTANCE_ID_CONFIG);
+        p.remove(ConsumerConfig.GROUP_PROTOCOL_CONFIG);
+        force(p, ConsumerConfig.ISOLATION_LEVEL_CONFIG, "read_committed");
+        p.put(ConsumerConfig.ENABLE_AUTO_COMMIT_CONFIG, "false");
+        p.put(ConsumerConfig.AUTO_OFFSET_RESET_CONFIG, "earliest");
+        p.put(ConsumerConfig.MAX_PARTITION_FETCH_BYTES_CONFIG, Math.max(s.snapshotMaxMessageBytes(), 1 << 20));
+        p.put(ConsumerConfig.CLIENT_ID_CONFIG, s.transactionalId() + clientIdSuffix);
+        return new KafkaConsumer<>(p, new ByteArrayDeserializer(), new ByteArrayDeserializer());
     }
 
     private Map<String, Object> consumer() {

@@ -51,6 +51,7 @@ final class KeyState {
     private long minEventTime;
     private long maxEventTime;
     private long lastOffset;
+    private long firstOffset = -1;
     private ActiveSet published;
     private final AlertTracker alerts;
     private int chunkCount;
@@ -110,6 +111,9 @@ final class KeyState {
         all.add(z, weight, eventTimeMs);
         if (folds != null) {
             folds.add(z, weight, eventTimeMs, count);
+        }
+        if (count == 0) {
+            firstOffset = offset;
         }
         count++;
         minEventTime = Math.min(minEventTime, eventTimeMs);
@@ -195,6 +199,14 @@ final class KeyState {
 
     long lastOffset() {
         return lastOffset;
+    }
+
+    /**
+     * Offset of the first record this state accepted, or -1 when that happened before it was restored
+     * from a snapshot (the snapshot does not carry it).
+     */
+    long firstOffset() {
+        return firstOffset;
     }
 
     ActiveSet published() {

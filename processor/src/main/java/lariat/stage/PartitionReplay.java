@@ -19,9 +19,9 @@ import java.util.List;
  * records, replaying a partition from its beginning and refitting at a version's recorded end
  * offset reproduces that version.
  *
- * <p>One partition only: a key that the stage saw first on another partition is not rejected
- * here as the stage would (the stage requires the input to be partitioned by model key). Not
- * thread-safe.
+ * <p>One partition only: a key that the stage saw first on another partition, or that the claims
+ * topic gives to another partition, is not rejected here as the stage would (the stage requires the
+ * input to be partitioned by model key). Not thread-safe.
  */
 public final class PartitionReplay {
 
@@ -58,7 +58,8 @@ public final class PartitionReplay {
         }
         StageSettings s = StageAssembly.settings(c);
         RecordDecoder decoder = RecordDecoder.create(c, baseDir);
-        RecordRouter router = new RecordRouter(c.get(StageConfig.FIELD_TARGET), decoder::decodeInto, s);
+        RecordRouter router = new RecordRouter(c.get(StageConfig.FIELD_TARGET), decoder::decodeInto, s,
+                RecordRouter.Ownership.ANY);
         ModelRecords records = new ModelRecords(s.inputTopic(), c.configHash(), StageAssembly.buildVersion());
         return new PartitionReplay(partition, router, RefitRecipe.of(c), records, s);
     }

@@ -31,6 +31,15 @@ final class PartitionStates {
         owner.put(s.modelKey(), s.partition());
     }
 
+    /** Drops the state {@code s}, when it is the one held for its key. */
+    void remove(KeyState s) {
+        Map<String, KeyState> m = byPartition.get(s.partition());
+        if (m != null && m.get(s.modelKey()) == s) {
+            m.remove(s.modelKey());
+            owner.remove(s.modelKey());
+        }
+    }
+
     /** Drops every key of {@code partition}. */
     void drop(int partition) {
         Map<String, KeyState> gone = byPartition.remove(partition);

@@ -11,7 +11,8 @@ import java.util.List;
 
 /**
  * The stage's per-record step: decode one input record, validate it, route it to its key's state
- * (creating the state on the key's first accepted record) and add it to the key's moments. The
+ * (creating the state on the key's first accepted record, unless the {@link Ownership} gives the key to
+ * another partition) and add it to the key's moments. The
  * stage loop and the replays of {@code lariat.audit} both call this one method, so a replay computes
  * the same state from the same records. Touches only the given states and layouts; sends nothing.
  */
@@ -44,15 +45,26 @@ final class RecordRouter {
         }
     }
 
+    /** Which input partition may start a state for a key that no state holds yet. */
+    interface Ownership {
+        /** Every partition may. */
+        Ownership ANY = (modelKey, partition) -> null;
+
+        /** Why {@code partition} may not hold {@code modelKey}, naming the owner; null when it may. */
+        String refusal(String modelKey, int partition);
+    }
+
     private final String targetName;
     private final InputDecoder decoder;
     private final StageSettings settings;
+    private final Ownership ownership;
     private final RowBuffer row = RowBuffer.create();
 
-    RecordRouter(String targetName, InputDecoder decoder, StageSettings settings) {
+    RecordRouter(String targetName, InputDecoder decoder, StageSettings settings, Ownership ownership) {
         this.targetName = targetName;
         this.decoder = decoder;
         this.settings = settings;
+        this.ownership = ownership;
     }
 
     /**
@@ -82,6 +94,11 @@ final class RecordRouter {
                     "key has width " + state.width() + ", record has " + z.length, null);
         }
         boolean fresh = state == null;
+        String refusal = fresh ? ownership.refusal(key, partition) : null;
+        if (refusal != null) {
+            layouts.remove(key);
+            return Outcome.rejected(key, DeadLetters.KEY_ON_TWO_PARTITIONS, refusal, null);
+        }
         if (fresh) {
             List<String> names = new ArrayList<>(row.layout().names());
             names.add(targetName);

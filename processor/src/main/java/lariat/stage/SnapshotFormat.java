@@ -119,6 +119,24 @@ public final class SnapshotFormat {
         return out;
     }
 
+    /**
+     * Tombstones of {@code modelKey}'s whole snapshot: chunk indexes {@code [0, chunkCount)}, then the
+     * manifest, so compaction removes the key from the partition and a restore no longer finds it.
+     *
+     * @throws IllegalArgumentException when {@code chunkCount < 0}
+     */
+    public static List<Entry> tombstones(String modelKey, int chunkCount) {
+        if (chunkCount < 0) {
+            throw new IllegalArgumentException("chunkCount must be >= 0, was " + chunkCount);
+        }
+        List<Entry> out = new ArrayList<>(chunkCount + 1);
+        for (int i = 0; i < chunkCount; i++) {
+            out.add(new Entry(chunkKey(modelKey, i), null));
+        }
+        out.add(new Entry(manifestKey(modelKey), null));
+        return out;
+    }
+
     static byte[] manifestKey(String modelKey) {
         return ("m|" + modelKey).getBytes(StandardCharsets.UTF_8);
     }

@@ -45,6 +45,12 @@ import java.util.concurrent.TimeUnit;
  * the consumed offsets with the consumer's group metadata. Wall time only decides when a cycle
  * ends; what a refit computes depends only on the key's records.
  *
+ * <p>Each cycle also reads the claims topic without waiting ({@link ClaimLog}, {@link KeyClaims}) and
+ * its transaction claims every held key whose (key, partition) pair has no claim yet. A new key whose
+ * earliest claim names another partition is a dead letter; a held key that another partition turns out
+ * to have claimed first (two instances started it at about the same time) is dropped and its snapshot
+ * tombstoned, so its later records there are dead letters too.
+ *
  * <p>Failures are handled in three places: a bad record becomes a dead letter in
  * {@link #route}; an abortable client error aborts the transaction and restores the assigned
  * partitions from their snapshots ({@link #recoverAbortable}); a fatal one closes both clients
@@ -83,16 +89,22 @@ public final class Stage implements AutoCloseable {
     private Producer<byte[], byte[]> producer;
     private SnapshotReader reader;
 
-    /** Offsets and dead letters of one partition in the open cycle. */
+    private final KeyClaims claims;
+    private Consumer<byte[], byte[]> claimConsumer;
+    private ClaimLog claimLog;
+
+    /** Offsets (-1: no record read), dead letters and snapshot tombstones of one partition in the open cycle. */
     private static final class PartitionWork {
         long nextOffset = -1;
         final List<ProducerRecord<byte[], byte[]>> deadLetters = new ArrayList<>();
+        final List<ProducerRecord<byte[], byte[]>> tombstones = new ArrayList<>();
     }
 
     Stage(StageSettings settings, String targetName, InputDecoder decoder, Refitter refitter, ClientFactory clients,
           StageMetrics metrics) {
         this.s = settings;
-        this.router = new RecordRouter(targetName, decoder, settings);
+        this.claims = new KeyClaims(settings.claimTopic());
+        this.router = new RecordRouter(targetName, decoder, settings, claims);
         this.refitter = refitter;
         this.clients = clients;
         this.metrics = metrics;
@@ -196,6 +208,7 @@ public final class Stage implements AutoCloseable {
     private void runOneCycle() {
         boolean committing = false;
         try {
+            readClaims();
             pollCycle();
             committing = true;
             commitCycle();
@@ -215,6 +228,39 @@ public final class Stage implements AutoCloseable {
             } else {
                 recoverFatal();
             }
+        }
+    }
+
+    /**
+     * Applies the claims read since the last cycle, then drops each held key that another partition
+     * claimed first: one WARN and one count per key and partition, its snapshot tombstoned in this
+     * cycle's transaction, and the router makes its later records there dead letters.
+     */
+    private void readClaims() {
+        claimLog.poll();
+        metrics.keyClaims(claims.size());
+        List<KeyState> dropped = claims.ownedElsewhere(states.all());
+        for (KeyState k : dropped) {
+            KeyClaims.Claim owner = claims.owner(k.modelKey());
+            if (claims.firstReport(k.modelKey(), k.partition())) {
+                metrics.keyClaimConflict();
+                LOG.warn("model key '{}' is held on input partition {} but input partition {} claimed it first "
+                        + "({}); its state on partition {} is dropped and its records there become dead letters: "
+                        + "the input must be partitioned by model key", k.modelKey(), k.partition(), owner.partition,
+                        owner, k.partition());
+            }
+            states.remove(k);
+            KeyLayouts l = layouts.get(k.partition());
+            if (l != null) {
+                l.remove(k.modelKey());
+            }
+            PartitionWork w = work.computeIfAbsent(k.partition(), p -> new PartitionWork());
+            for (SnapshotFormat.Entry e : SnapshotFormat.tombstones(k.modelKey(), k.chunkCount())) {
+                w.tombstones.add(new ProducerRecord<>(s.snapshotTopic(), k.partition(), e.key(), e.value()));
+            }
+        }
+        if (!dropped.isEmpty()) {
+            metrics.keys(states.size());
         }
     }
 
@@ -290,7 +336,8 @@ public final class Stage implements AutoCloseable {
     }
 
     private void commitCycle() {
-        if (work.isEmpty()) {
+        List<KeyState> unclaimed = claims.unclaimed(states.all());
+        if (work.isEmpty() && unclaimed.isEmpty()) {
             updateLag();
             return;
         }
@@ -299,6 +346,10 @@ public final class Stage implements AutoCloseable {
             if (k.dirty() && k.refitDue(s.refitEveryRecords(), s.refitEveryEventMs())) {
                 refit(k, out);
             }
+        }
+        long now = System.currentTimeMillis();
+        for (KeyState k : unclaimed) {
+            out.add(claimLog.claim(k, now));
         }
         producer.beginTransaction();
         inTransaction = true;
@@ -313,19 +364,29 @@ public final class Stage implements AutoCloseable {
             for (ProducerRecord<byte[], byte[]> dl : w.deadLetters) {
                 producer.send(dl);
             }
+            for (ProducerRecord<byte[], byte[]> r : w.tombstones) {
+                producer.send(r);
+            }
             for (KeyState k : states.of(p)) {
                 if (k.dirty()) {
                     newChunkCounts.put(k, sendSnapshot(k));
                 }
             }
-            SnapshotFormat.Entry marker = SnapshotFormat.offsetMarker(w.nextOffset);
-            producer.send(new ProducerRecord<>(s.snapshotTopic(), p, marker.key(), marker.value()));
-            offsets.put(new TopicPartition(s.inputTopic(), p), new OffsetAndMetadata(w.nextOffset));
+            if (w.nextOffset >= 0) {
+                SnapshotFormat.Entry marker = SnapshotFormat.offsetMarker(w.nextOffset);
+                producer.send(new ProducerRecord<>(s.snapshotTopic(), p, marker.key(), marker.value()));
+                offsets.put(new TopicPartition(s.inputTopic(), p), new OffsetAndMetadata(w.nextOffset));
+            }
         }
-        producer.sendOffsetsToTransaction(offsets, consumer.groupMetadata());
+        if (!offsets.isEmpty()) {
+            producer.sendOffsetsToTransaction(offsets, consumer.groupMetadata());
+        }
         producer.commitTransaction();
         inTransaction = false;
         metrics.transactionCommitted();
+        for (KeyState k : unclaimed) {
+            claims.sent(k.modelKey(), k.partition());
+        }
         commitListener.accept(Collections.unmodifiableMap(offsets));
         for (Map.Entry<KeyState, Integer> e : newChunkCounts.entrySet()) {
             e.getKey().chunkCount(e.getValue());
@@ -416,6 +477,7 @@ public final class Stage implements AutoCloseable {
         work.clear();
         states.clear();
         layouts.clear();
+        claims.clear();
         assigned.clear();
         ready = false;
         closeClients(Duration.ofMillis(s.closeTimeoutMs()));
@@ -461,6 +523,8 @@ public final class Stage implements AutoCloseable {
         producer.initTransactions();
         restoreConsumer = clients.restoreConsumer();
         reader = new SnapshotReader(restoreConsumer, metrics, Duration.ofMillis(s.restoreTimeoutMs()));
+        claimConsumer = clients.claimConsumer();
+        claimLog = new ClaimLog(claimConsumer, s, claims);
         consumer = clients.groupConsumer();
         consumer.subscribe(List.of(s.inputTopic()), new Listener());
     }
@@ -473,6 +537,10 @@ public final class Stage implements AutoCloseable {
         if (restoreConsumer != null) {
             closeQuietly(restoreConsumer, timeout);
             restoreConsumer = null;
+        }
+        if (claimConsumer != null) {
+            closeQuietly(claimConsumer, timeout);
+            claimConsumer = null;
         }
         if (producer != null) {
             try {
@@ -496,7 +564,8 @@ public final class Stage implements AutoCloseable {
      * Replaces the state of {@code partitions} with their snapshots and seeks each to its
      * committed offset. The committed offsets are fetched first: that fetch waits until no
      * transaction that could still commit offsets for them is open, so the snapshot read after
-     * it is the one those offsets belong to.
+     * it is the one those offsets belong to. The claims are read to their end after that fetch too,
+     * so the pairs the previous owner of the partitions claimed are known before any is claimed again.
      *
      * @throws RestoreTimeoutException when the committed offsets are not known within
      *                                 {@code restore.timeout.ms}
@@ -509,6 +578,8 @@ public final class Stage implements AutoCloseable {
         ready = false;
         long t0 = System.nanoTime();
         Map<TopicPartition, OffsetAndMetadata> committed = committedOffsets(new HashSet<>(partitions));
+        claimLog.catchUp(Duration.ofMillis(s.restoreTimeoutMs()));
+        metrics.keyClaims(claims.size());
         for (TopicPartition tp : partitions) {
             states.drop(tp.partition());
             work.remove(tp.partition());

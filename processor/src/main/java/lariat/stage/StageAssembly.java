@@ -42,6 +42,7 @@ public final class StageAssembly {
                 .clientProperties(c.producerProperties(), c.consumerProperties(), c.adminProperties())
                 .topics(c.get(StageConfig.INPUT_TOPIC), c.get(StageConfig.MODEL_TOPIC), c.get(StageConfig.ALERT_TOPIC),
                         c.get(StageConfig.DEADLETTER_TOPIC), c.get(StageConfig.SNAPSHOT_TOPIC))
+                .claimTopic(c.get(StageConfig.CLAIM_TOPIC))
                 .stageId(c.get(StageConfig.STAGE_ID))
                 .instanceId(c.get(StageConfig.STAGE_INSTANCE))
                 .groupId(c.groupId())

@@ -31,6 +31,8 @@ public final class StageMetrics {
     private final LongAdder snapshotBytes = new LongAdder();
     private final LongAdder snapshotsIncomplete = new LongAdder();
     private final LongAdder keysOnTwoPartitions = new LongAdder();
+    private final LongAdder keyClaimConflicts = new LongAdder();
+    private final AtomicLong keyClaims = new AtomicLong();
     private final AtomicLong lag = new AtomicLong();
     private final AtomicLong keys = new AtomicLong();
 
@@ -103,6 +105,29 @@ public final class StageMetrics {
         keysOnTwoPartitions.increment();
     }
 
+    /**
+     * Counts one key dropped from a partition of this instance because the claims topic shows that
+     * another partition claimed it first.
+     */
+    public void keyClaimConflict() {
+        keyClaimConflicts.increment();
+    }
+
+    /** Sets the number of key claims read from the claims topic. */
+    public void keyClaims(long count) {
+        keyClaims.set(count);
+    }
+
+    /** Keys dropped because another partition claimed them first. */
+    public long keyClaimConflicts() {
+        return keyClaimConflicts.sum();
+    }
+
+    /** Key claims read from the claims topic. */
+    public long keyClaims() {
+        return keyClaims.get();
+    }
+
     /** Sets the summed consumer lag over assigned partitions, in records. */
     public void lag(long records) {
         lag.set(records);
@@ -162,8 +187,13 @@ public final class StageMetrics {
         counter(out, "lariat_snapshot_bytes_total", "Snapshot state bytes written.", snapshotBytes.sum());
         counter(out, "lariat_snapshots_incomplete_total", "Snapshots skipped on restore as incomplete.",
                 snapshotsIncomplete.sum());
-        counter(out, "lariat_keys_on_two_partitions_total", "Records whose key already lives on another partition.",
+        counter(out, "lariat_keys_on_two_partitions_total", "Records whose key lives on, or is owned by, another "
+                + "partition.",
                 keysOnTwoPartitions.sum());
+        counter(out, "lariat_key_claim_conflicts_total", "Keys dropped from a partition of this instance because "
+                + "the claims topic shows another partition claimed them first.", keyClaimConflicts.sum());
+        gauge(out, "lariat_key_claims", "Key claims read from the claims topic (model key and input partition pairs).",
+                keyClaims.get());
         gauge(out, "lariat_consumer_lag_records", "Summed lag of the assigned input partitions.", lag.get());
         gauge(out, "lariat_keys", "Model keys held in memory.", keys.get());
         return out.toString();

@@ -20,6 +20,7 @@ public final class StageSettings {
     private final String alertTopic;
     private final String deadLetterTopic;
     private final String snapshotTopic;
+    private final String claimTopic;
     private final String stageId;
     private final String instanceId;
     private final String groupId;
@@ -49,6 +50,7 @@ public final class StageSettings {
         this.alertTopic = require("alert.topic", b.alertTopic);
         this.deadLetterTopic = require("dead.letter.topic", b.deadLetterTopic);
         this.snapshotTopic = require("snapshot.topic", b.snapshotTopic);
+        this.claimTopic = require("claim.topic", b.claimTopic);
         this.stageId = require("stage.id", b.stageId);
         this.instanceId = require("stage.instance", b.instanceId);
         this.groupId = b.groupId == null || b.groupId.isEmpty() ? stageId : b.groupId;
@@ -148,6 +150,11 @@ public final class StageSettings {
 
     public String snapshotTopic() {
         return snapshotTopic;
+    }
+
+    /** The compacted one-partition topic of key claims (see {@link KeyClaims}). */
+    public String claimTopic() {
+        return claimTopic;
     }
 
     public String stageId() {
@@ -259,6 +266,7 @@ public final class StageSettings {
         private String alertTopic;
         private String deadLetterTopic;
         private String snapshotTopic;
+        private String claimTopic;
         private String stageId = "lariat";
         private String instanceId = "0";
         private String groupId;
@@ -305,6 +313,11 @@ public final class StageSettings {
             this.alertTopic = alert;
             this.deadLetterTopic = deadLetter;
             this.snapshotTopic = snapshot;
+            return this;
+        }
+
+        public Builder claimTopic(String v) {
+            this.claimTopic = v;
             return this;
         }
 

@@ -27,7 +27,8 @@ import java.util.concurrent.TimeoutException;
  * Checks the input topic, creates missing output topics and refuses to start when an existing
  * one does not fit. The snapshot topic must have as many partitions as the input (snapshot
  * partition P holds the state of input partition P) and {@code cleanup.policy=compact} alone,
- * since deletion by retention would lose state.
+ * since deletion by retention would lose state. The claims topic must have one partition (its order
+ * decides which partition owns a key) and be compacted alone, since deletion would forget owners.
  */
 public final class TopicSetup {
 
@@ -94,7 +95,10 @@ public final class TopicSetup {
         create(s.modelTopic(), Optional.empty(), modelConfig);
         create(s.alertTopic(), Optional.empty(), Map.of());
         create(s.deadLetterTopic(), Optional.empty(), Map.of());
+        create(s.claimTopic(), Optional.of(1), Map.of(TopicConfig.CLEANUP_POLICY_CONFIG,
+                TopicConfig.CLEANUP_POLICY_COMPACT));
         checkSnapshot(partitions);
+        checkClaims();
         checkModel();
         return partitions;
     }
@@ -106,12 +110,29 @@ public final class TopicSetup {
             problems.add("has " + sp + " partitions but input topic '" + s.inputTopic() + "' has "
                     + inputPartitions + " (snapshot partition P must hold input partition P)");
         }
-        String policy = config(s.snapshotTopic()).get(TopicConfig.CLEANUP_POLICY_CONFIG).value();
-        if (!TopicConfig.CLEANUP_POLICY_COMPACT.equals(policy.replace(" ", ""))) {
-            problems.add("has cleanup.policy=" + policy + " but must be compact only");
-        }
+        requireCompactOnly(s.snapshotTopic(), problems);
         if (!problems.isEmpty()) {
             throw new TopicMismatchException("snapshot topic '" + s.snapshotTopic() + "' " + String.join("; ", problems));
+        }
+    }
+
+    private void checkClaims() throws InterruptedException {
+        int cp = awaitDescribed(s.claimTopic()).partitions().size();
+        List<String> problems = new ArrayList<>();
+        if (cp != 1) {
+            problems.add("has " + cp + " partitions but must have 1 (one partition puts every claim in one order)");
+        }
+        requireCompactOnly(s.claimTopic(), problems);
+        if (!problems.isEmpty()) {
+            throw new TopicMismatchException("claim topic '" + s.claimTopic() + "' " + String.join("; ", problems));
+        }
+    }
+
+    /** Adds to {@code problems} when {@code topic} has another cleanup policy than compact alone. */
+    private void requireCompactOnly(String topic, List<String> problems) throws InterruptedException {
+        String policy = config(topic).get(TopicConfig.CLEANUP_POLICY_CONFIG).value();
+        if (!TopicConfig.CLEANUP_POLICY_COMPACT.equals(policy.replace(" ", ""))) {
+            problems.add("has cleanup.policy=" + policy + " but must be compact only");
         }
     }
 

@@ -131,4 +131,18 @@ class SnapshotFormatTest {
         assertArrayEquals(state, restored.toBytes());
         assertEquals(k.moments().moments().fingerprint(), restored.moments().moments().fingerprint());
     }
+
+    @Test
+    void tombstones_keyOfThreeChunks_nullValueForEveryChunkAndTheManifest() {
+        List<SnapshotFormat.Entry> written = SnapshotFormat.encode("north-03", 5, state(2500), CHUNK, 0);
+        List<SnapshotFormat.Entry> gone = SnapshotFormat.tombstones("north-03", 3);
+        assertEquals(written.size(), gone.size(), "one tombstone per record the snapshot wrote");
+        for (int i = 0; i < written.size(); i++) {
+            assertArrayEquals(written.get(i).key(), gone.get(i).key());
+            assertNull(gone.get(i).value());
+        }
+        assertEquals(SnapshotFormat.Kind.MANIFEST, SnapshotFormat.kindOf(gone.get(3).key()));
+        assertEquals(1, SnapshotFormat.tombstones("north-03", 0).size(), "a state never committed: its manifest only");
+        assertThrows(IllegalArgumentException.class, () -> SnapshotFormat.tombstones("north-03", -1));
+    }
 }

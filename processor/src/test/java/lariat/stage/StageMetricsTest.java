@@ -20,4 +20,15 @@ class StageMetricsTest {
         assertTrue(text.contains("lariat_refit_seconds_total 0.25\n"), text);
         assertTrue(text.contains("# TYPE lariat_consumer_lag_records gauge\nlariat_consumer_lag_records 17\n"), text);
     }
+
+    @Test
+    void render_keyClaims_conflictCounterAndClaimGauge() {
+        StageMetrics m = new StageMetrics();
+        m.keyClaimConflict();
+        m.keyClaims(4);
+        String text = m.render();
+        assertTrue(text.contains("# TYPE lariat_key_claim_conflicts_total counter\n"
+                + "lariat_key_claim_conflicts_total 1\n"), text);
+        assertTrue(text.contains("# TYPE lariat_key_claims gauge\nlariat_key_claims 4\n"), text);
+    }
 }

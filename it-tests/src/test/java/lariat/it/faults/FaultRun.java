@@ -55,6 +55,7 @@ final class FaultRun implements AutoCloseable {
     final String alerts;
     final String snapshots;
     final String deadLetters;
+    final String claims;
     private final Map<String, String> extra;
     private final List<StageProcess> started = new ArrayList<>();
     private final KafkaProducer<byte[], byte[]> producer;
@@ -66,6 +67,7 @@ final class FaultRun implements AutoCloseable {
         this.alerts = name + ".alerts";
         this.snapshots = name + ".snapshots";
         this.deadLetters = name + ".deadletters";
+        this.claims = StageTestKit.claimTopicOf(snapshots);
         this.extra = new TreeMap<>(extra);
         Properties p = TestKafka.producerProperties();
         p.setProperty(ProducerConfig.LINGER_MS_CONFIG, "5");
@@ -131,6 +133,12 @@ final class FaultRun implements AutoCloseable {
     /** Sends a good reading keyed by its station. */
     void send(StationReading r) {
         producer.send(new ProducerRecord<>(input, utf8(r.getStation().toString()), StageTestKit.encode(r)));
+    }
+
+    /** Sends a good reading keyed by its station to input partition {@code partition}, whatever the key's hash. */
+    Future<RecordMetadata> sendTo(int partition, StationReading r) {
+        return producer.send(new ProducerRecord<>(input, partition, utf8(r.getStation().toString()),
+                StageTestKit.encode(r)));
     }
 
     /** Sends raw value bytes keyed by {@code key}. */

@@ -153,17 +153,34 @@ class StageEndToEndIT {
 
     @Test
     void run_snapshotTopicWithOtherPartitionCount_refusesNamingTopic() throws Exception {
-        String input = TestKafka.uniqueTopic("mismatch-in");
         String snapshots = TestKafka.uniqueTopic("mismatch-snap");
-        TestKafka.createTopic(input, 3, Map.of());
         TestKafka.createTopic(snapshots, 1, Map.of("cleanup.policy", "compact"));
-        Map<String, String> props = config(input, TestKafka.uniqueTopic("mismatch-models"),
-                TestKafka.uniqueTopic("mismatch-dlq"), 0);
-        props.put("snapshot.topic", snapshots);
+        String message = refusal("mismatch", 3, "snapshot.topic", snapshots);
+        assertTrue(message.contains(snapshots) && message.contains("1 partitions") && message.contains("has 3"),
+                message);
+    }
+
+    @Test
+    void run_claimTopicNotCompacted_refusesNamingTopic() throws Exception {
+        String claims = TestKafka.uniqueTopic("claims-deleted");
+        TestKafka.createTopic(claims, 1, Map.of("cleanup.policy", "delete"));
+        String message = refusal("claims", 2, "claim.topic", claims);
+        assertTrue(message.contains("claim topic '" + claims + "'")
+                && message.contains("cleanup.policy=delete but must be compact only"), message);
+    }
+
+    /**
+     * The message with which a stage on a new input of {@code inputPartitions} partitions refuses to run
+     * when {@code key} names the existing {@code topic}; other topics are new, named after {@code prefix}.
+     */
+    private static String refusal(String prefix, int inputPartitions, String key, String topic) throws Exception {
+        String input = TestKafka.uniqueTopic(prefix + "-in");
+        TestKafka.createTopic(input, inputPartitions, Map.of());
+        Map<String, String> props = config(input, TestKafka.uniqueTopic(prefix + "-models"),
+                TestKafka.uniqueTopic(prefix + "-dlq"), 0);
+        props.put(key, topic);
         Stage stage = StageAssembly.create(StageConfig.of(props), Path.of(""));
-        TopicSetup.TopicMismatchException e = assertThrows(TopicSetup.TopicMismatchException.class, stage::run);
-        assertTrue(e.getMessage().contains(snapshots) && e.getMessage().contains("1 partitions")
-                && e.getMessage().contains("has 3"), e.getMessage());
+        return assertThrows(TopicSetup.TopicMismatchException.class, stage::run).getMessage();
     }
 
     private static Map<String, String> config(String input, String models, String deadLetters, int metricsPort) {

@@ -22,6 +22,7 @@ import lariat.schema.ModelVersion;
 import lariat.schema.StationReading;
 import lariat.stage.Stage;
 import lariat.stage.StageAssembly;
+import lariat.stage.StageMetrics;
 import org.apache.kafka.clients.admin.Admin;
 import org.apache.kafka.clients.admin.OffsetSpec;
 import org.apache.kafka.clients.consumer.ConsumerRecord;
@@ -64,13 +65,19 @@ public final class StageTestKit {
         config.put("field.target", target);
     }
 
-    /** Puts into {@code config} the four output topics of a stage. */
+    /** Puts into {@code config} the four output topics of a stage, and its claims topic named after the snapshots. */
     public static void outputTopics(Map<String, String> config, String models, String alerts, String snapshots,
                                     String deadLetters) {
         config.put("model.topic", models);
         config.put("alert.topic", alerts);
         config.put("snapshot.topic", snapshots);
         config.put("deadletter.topic", deadLetters);
+        config.put("claim.topic", claimTopicOf(snapshots));
+    }
+
+    /** The claims topic {@link #outputTopics} names for the snapshot topic {@code snapshots}. */
+    public static String claimTopicOf(String snapshots) {
+        return snapshots + ".claims";
     }
 
     /** Avro single-object encoding of {@code r}, as the stage's {@code avro-single-object} format reads. */
@@ -218,6 +225,16 @@ public final class StageTestKit {
             }, "stage-under-test");
             loop.start();
             return s;
+        }
+
+        /** The stage's counters and gauges. */
+        public StageMetrics metrics() {
+            return stage.metrics();
+        }
+
+        /** What the stage's loop threw, or null while it runs or after a clean stop. */
+        public Throwable failure() {
+            return failure.get();
         }
 
         /** Waits until the stage's group has committed the current end offset of every partition of {@code input}. */
