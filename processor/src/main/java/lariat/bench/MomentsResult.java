@@ -10,16 +10,18 @@ public final class MomentsResult implements BenchReport {
     private final int rows;
     private final int blockSize;
     private final int threads;
+    private final int threadsUsed;
     private final Timings timings;
     private final Timings cpu;
     private final Timings callerCpu;
 
-    private MomentsResult(int features, int rows, int blockSize, int threads, Timings timings, Timings cpu,
-            Timings callerCpu) {
+    private MomentsResult(int features, int rows, int blockSize, int threads, int threadsUsed, Timings timings,
+                          Timings cpu, Timings callerCpu) {
         this.features = features;
         this.rows = rows;
         this.blockSize = blockSize;
         this.threads = threads;
+        this.threadsUsed = threadsUsed;
         this.timings = timings;
         this.cpu = cpu;
         this.callerCpu = callerCpu;
@@ -27,12 +29,13 @@ public final class MomentsResult implements BenchReport {
 
     /**
      * @param threads the threads the stream was allowed to use
+     * @param threadsUsed the threads its block updates split their work between (1 for narrow widths)
      * @param cpu the same passes' CPU time of all Java threads (worker threads included)
      * @param callerCpu the same passes' CPU time of the benchmark thread alone
      */
-    static MomentsResult of(int features, int rows, int blockSize, int threads, Timings timings, Timings cpu,
-            Timings callerCpu) {
-        return new MomentsResult(features, rows, blockSize, threads, timings, cpu, callerCpu);
+    static MomentsResult of(int features, int rows, int blockSize, int threads, int threadsUsed, Timings timings,
+                            Timings cpu, Timings callerCpu) {
+        return new MomentsResult(features, rows, blockSize, threads, threadsUsed, timings, cpu, callerCpu);
     }
 
     /** Records per second of the median pass. */
@@ -54,7 +57,8 @@ public final class MomentsResult implements BenchReport {
     }
 
     /**
-     * The JSON object: records_per_s (the contract), then features, width, rows, block_size, threads, repeat,
+     * The JSON object: records_per_s (the contract), then features, width, rows, block_size, threads (used),
+     * threads_allowed, repeat,
      * the median, minimum and maximum pass time in seconds, records_per_cpu_s (all Java threads) and
      * records_per_caller_cpu_s (benchmark thread).
      */
@@ -65,7 +69,8 @@ public final class MomentsResult implements BenchReport {
         m.put("width", features + 1);
         m.put("rows", rows);
         m.put("block_size", blockSize);
-        m.put("threads", threads);
+        m.put("threads", threadsUsed);
+        m.put("threads_allowed", threads);
         m.put("repeat", timings.runs());
         m.put("median_s", timings.median());
         m.put("min_s", timings.min());
@@ -79,7 +84,7 @@ public final class MomentsResult implements BenchReport {
         String head = String.format("%8s %6s %8s %6s %7s %7s %12s %14s %18s %18s%n", "features", "width", "rows",
                 "block", "threads", "repeat", "median_s", "records_per_s", "records_per_cpu_s", "caller_cpu_rec_s");
         String row = String.format("%8d %6d %8d %6d %7d %7d %12.6f %14.1f %18.1f %18.1f%n", features, features + 1,
-                rows, blockSize, threads, timings.runs(), timings.median(), recordsPerSecond(), recordsPerCpuSecond(),
+                rows, blockSize, threadsUsed, timings.runs(), timings.median(), recordsPerSecond(), recordsPerCpuSecond(),
                 recordsPerCallerCpuSecond());
         return head + row;
     }

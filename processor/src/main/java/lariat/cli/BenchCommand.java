@@ -128,7 +128,8 @@ public final class BenchCommand implements Runnable {
         int repeat;
 
         @Option(names = "--threads", description = "Threads a block merge may use, the benchmark thread included "
-                + "(default: the system property lariat.moments.threads, else the available processors).")
+                + "(default: the system property lariat.moments.threads, else the available processors). Widths "
+                + "up to 256 always use one; the table shows the threads used.")
         Integer threads;
 
         @CommandLine.Mixin

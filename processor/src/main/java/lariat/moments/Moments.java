@@ -175,6 +175,14 @@ public final class Moments {
     }
 
     /**
+     * Threads a block update of moments of {@code width} columns allowed {@code threads} threads actually
+     * splits its work between: 1 for widths up to {@value #SERIAL_MAX_WIDTH}, else {@code threads}.
+     */
+    public static int threadsUsed(int width, int threads) {
+        return width > SERIAL_MAX_WIDTH ? checkThreads(threads) : 1;
+    }
+
+    /**
      * Sets the threads a block update of a wide block may use, the calling thread included; the others come
      * from a shared set of daemon threads. Widths up to {@value #SERIAL_MAX_WIDTH} and small blocks always run
      * on the calling thread. The result is the same bits for every thread count. Modifies this object only.
