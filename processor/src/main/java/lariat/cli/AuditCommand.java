@@ -21,7 +21,6 @@ import java.io.PrintWriter;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.time.Duration;
 import java.util.concurrent.Callable;
 
 /** The {@code audit} command: proves that published model versions follow from the input and the configuration. */
@@ -79,9 +78,6 @@ public final class AuditCommand implements Callable<Integer> {
     @Option(names = "--quiet", description = "No progress lines on stderr.")
     boolean quiet;
 
-    @Option(names = "--timeout-ms", defaultValue = "30000", paramLabel = "MS",
-            description = "Longest wait without progress (default: ${DEFAULT-VALUE}).")
-    long timeoutMs;
 
     @Override
     public Integer call() throws IOException {
@@ -101,7 +97,7 @@ public final class AuditCommand implements Callable<Integer> {
             Progress progress = quiet ? Progress.NONE
                     : new ProgressLine(new PrintStream(System.err, true, StandardCharsets.UTF_8), 1000);
             Auditor auditor = new Auditor(clients, c, config.toAbsolutePath().getParent(),
-                    Duration.ofMillis(timeoutMs), progress);
+                    cluster.timeout(), progress);
             report = auditor.audit(modelTopic != null ? modelTopic : c.get(StageConfig.MODEL_TOPIC), scope);
         } catch (IllegalArgumentException | IllegalStateException | KafkaException e) {
             err.println("audit: " + e.getMessage());

@@ -20,7 +20,6 @@ import picocli.CommandLine.Spec;
 
 import java.io.IOException;
 import java.io.PrintWriter;
-import java.time.Duration;
 import java.util.List;
 import java.util.Map;
 import java.util.Optional;
@@ -77,9 +76,6 @@ public final class HistoryCommand implements Callable<Integer> {
     @Option(names = "--json", description = "Write JSON instead of a table.")
     boolean json;
 
-    @Option(names = "--timeout-ms", defaultValue = "30000", paramLabel = "MS",
-            description = "Longest wait without progress (default: ${DEFAULT-VALUE}).")
-    long timeoutMs;
 
     @Override
     public Integer call() throws IOException {
@@ -89,7 +85,7 @@ public final class HistoryCommand implements Callable<Integer> {
         try {
             ClusterClients clients = ClusterClients.of(cluster.clientProperties(Map.of()), "lariat-history");
             try (Consumer<byte[], byte[]> c = clients.consumer()) {
-                versions = new ModelTopicReader(c, Duration.ofMillis(timeoutMs))
+                versions = new ModelTopicReader(c, cluster.timeout())
                         .read(modelTopic, k -> key == null || key.equals(k)).versions();
             }
         } catch (IllegalArgumentException | IllegalStateException | KafkaException e) {

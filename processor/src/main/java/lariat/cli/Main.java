@@ -10,6 +10,7 @@ import picocli.CommandLine.Command;
             AuditCommand.class,
             BenchCommand.class,
             BrokerCommand.class,
+            ClaimsCommand.class,
             ConfigDocCommand.class,
             DemoCommand.class,
             FitCommand.class,

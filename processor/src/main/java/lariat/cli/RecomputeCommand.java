@@ -21,7 +21,6 @@ import java.io.PrintWriter;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.time.Duration;
 import java.util.List;
 import java.util.Set;
 import java.util.concurrent.Callable;
@@ -70,9 +69,6 @@ public final class RecomputeCommand implements Callable<Integer> {
     @Option(names = "--quiet", description = "No progress lines on stderr.")
     boolean quiet;
 
-    @Option(names = "--timeout-ms", defaultValue = "30000", paramLabel = "MS",
-            description = "Longest wait without progress (default: ${DEFAULT-VALUE}).")
-    long timeoutMs;
 
     @Override
     public Integer call() throws IOException, InterruptedException {
@@ -100,7 +96,7 @@ public final class RecomputeCommand implements Callable<Integer> {
             ClusterClients clients = ClusterClients.of(cluster.clientProperties(c.consumerProperties()), "lariat-recompute");
             Progress progress = quiet ? Progress.NONE
                     : new ProgressLine(new PrintStream(System.err, true, StandardCharsets.UTF_8), 1000);
-            results = new Recomputer(clients, c, config.toAbsolutePath().getParent(), Duration.ofMillis(timeoutMs),
+            results = new Recomputer(clients, c, config.toAbsolutePath().getParent(), cluster.timeout(),
                     progress).recompute(published, AuditScope.of(key, 0, Long.MIN_VALUE, Long.MAX_VALUE));
             if (output != null) {
                 Recomputer.writeJson(results, output);

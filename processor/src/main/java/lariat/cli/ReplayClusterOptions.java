@@ -2,6 +2,7 @@ package lariat.cli;
 
 import java.io.IOException;
 import java.nio.file.Path;
+import java.time.Duration;
 import java.util.Map;
 
 import lariat.audit.ClusterClients;
@@ -21,6 +22,15 @@ final class ReplayClusterOptions {
     @Option(names = "--client-config", paramLabel = "FILE",
             description = "Kafka client properties (TLS, SASL, ...), over the configuration's where there is one.")
     Path clientConfig;
+
+    @Option(names = "--timeout-ms", defaultValue = "30000", paramLabel = "MS",
+            description = "Longest wait without progress (default: ${DEFAULT-VALUE}).")
+    long timeoutMs;
+
+    /** {@code --timeout-ms} as a duration. */
+    Duration timeout() {
+        return Duration.ofMillis(timeoutMs);
+    }
 
     /** The configuration's client properties with these options applied over them. */
     Map<String, Object> clientProperties(Map<String, Object> fromConfiguration) throws IOException {

@@ -29,7 +29,7 @@ import java.util.List;
  * shared by stages) are passed over. A record that does not decode, or whose value names another pair
  * than its key, is logged and passed over; it never stops the stage.
  */
-final class ClaimLog {
+public final class ClaimLog {
 
     private static final Logger LOG = LoggerFactory.getLogger(ClaimLog.class);
 
@@ -52,7 +52,7 @@ final class ClaimLog {
     }
 
     /** The Kafka key of the claim of ({@code modelKey}, {@code partition}) of {@code inputTopic}. */
-    static byte[] recordKey(String inputTopic, int partition, String modelKey) {
+    public static byte[] recordKey(String inputTopic, int partition, String modelKey) {
         return (inputTopic + "|" + partition + "|" + modelKey).getBytes(StandardCharsets.UTF_8);
     }
 
