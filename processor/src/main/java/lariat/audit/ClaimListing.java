@@ -1,14 +1,13 @@
 package lariat.audit;
 
 import lariat.schema.KeyClaim;
-import org.apache.avro.AvroRuntimeException;
+import lariat.stage.ClaimLog;
 import org.apache.kafka.clients.consumer.Consumer;
 import org.apache.kafka.clients.consumer.ConsumerRecord;
 import org.apache.kafka.common.PartitionInfo;
 import org.apache.kafka.common.TopicPartition;
 
 import java.io.IOException;
-import java.nio.ByteBuffer;
 import java.nio.charset.StandardCharsets;
 import java.time.Duration;
 import java.util.ArrayList;
@@ -102,8 +101,7 @@ public final class ClaimListing {
                     continue;
                 }
                 KeyClaim c = decode(r.value());
-                if (c == null || !key.equals(new String(lariat.stage.ClaimLog.recordKey(c.getInputTopic(),
-                        c.getInputPartition(), c.getKey()), StandardCharsets.UTF_8))) {
+                if (c == null || !ClaimLog.named(key, c)) {
                     passedOver++;
                     continue;
                 }
@@ -143,8 +141,8 @@ public final class ClaimListing {
 
     private static KeyClaim decode(byte[] value) {
         try {
-            return KeyClaim.fromByteBuffer(ByteBuffer.wrap(value));
-        } catch (IOException | AvroRuntimeException e) {
+            return ClaimLog.decode(value);
+        } catch (IOException e) {
             return null;
         }
     }
@@ -172,7 +170,7 @@ public final class ClaimListing {
 
     /** The live claim of ({@code inputTopic}, {@code partition}, {@code modelKey}), or null. */
     public Entry find(String inputTopic, int partition, String modelKey) {
-        String key = new String(lariat.stage.ClaimLog.recordKey(inputTopic, partition, modelKey), StandardCharsets.UTF_8);
+        String key = new String(ClaimLog.recordKey(inputTopic, partition, modelKey), StandardCharsets.UTF_8);
         for (Entry e : entries) {
             if (e.recordKey.equals(key)) {
                 return e;

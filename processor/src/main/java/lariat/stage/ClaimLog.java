@@ -56,6 +56,25 @@ public final class ClaimLog {
         return (inputTopic + "|" + partition + "|" + modelKey).getBytes(StandardCharsets.UTF_8);
     }
 
+    /**
+     * The claim in the value of a claims-topic record (Avro single-object encoding).
+     *
+     * @throws IOException when the value is not a key claim
+     */
+    public static KeyClaim decode(byte[] value) throws IOException {
+        try {
+            return KeyClaim.fromByteBuffer(ByteBuffer.wrap(value));
+        } catch (AvroRuntimeException e) {
+            throw new IOException(e.getMessage(), e);
+        }
+    }
+
+    /** Whether {@code recordKey} (UTF-8 text) is the Kafka key of claim {@code c}, which names a partition >= 0. */
+    public static boolean named(String recordKey, KeyClaim c) {
+        return c.getInputPartition() >= 0 && recordKey.equals(new String(recordKey(c.getInputTopic(),
+                c.getInputPartition(), c.getKey()), StandardCharsets.UTF_8));
+    }
+
     /** Applies the claims fetched so far without waiting for more. */
     void poll() {
         apply(consumer.poll(Duration.ZERO));
@@ -116,14 +135,13 @@ public final class ClaimLog {
             }
             KeyClaim c;
             try {
-                c = KeyClaim.fromByteBuffer(ByteBuffer.wrap(r.value()));
-            } catch (IOException | AvroRuntimeException e) {
+                c = decode(r.value());
+            } catch (IOException e) {
                 LOG.warn("record at offset {} of claims topic {} (key '{}') is not a key claim; passed over: {}",
                         r.offset(), tp, key, e.toString());
                 continue;
             }
-            if (!key.equals(new String(recordKey(c.getInputTopic(), c.getInputPartition(), c.getKey()),
-                    StandardCharsets.UTF_8)) || c.getInputPartition() < 0) {
+            if (!named(key, c)) {
                 LOG.warn("claim at offset {} of claims topic {} has key '{}' but names key '{}' on partition {} of "
                         + "'{}'; passed over", r.offset(), tp, key, c.getKey(), c.getInputPartition(),
                         c.getInputTopic());
