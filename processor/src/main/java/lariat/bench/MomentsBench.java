@@ -62,7 +62,7 @@ public final class MomentsBench {
                 throw new IllegalStateException("stream counted " + m.count() + " of " + rows + " rows");
             }
         }
-        return MomentsResult.of(features, rows, blockSize, threads, Moments.threadsUsed(d, threads),
+        return MomentsResult.of(features, rows, blockSize, threads, Moments.threadsUsed(d, blockSize, threads),
                 Timings.of(seconds), Timings.of(cpu),
                 Timings.of(callerCpu));
     }

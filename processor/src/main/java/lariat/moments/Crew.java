@@ -30,7 +30,7 @@ final class Crew {
 
     /** Largest thread count a crew supports (further threads would rarely find work in one block). */
     static final int MAX_THREADS = 64;
-    private static final long SPIN_NANOS = 50_000L;
+    private static final long SPIN_NANOS = 200_000L;
     private static final Crew[] SHARED = new Crew[MAX_THREADS + 1];
 
     private final Thread[] workers;

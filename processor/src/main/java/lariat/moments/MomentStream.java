@@ -14,6 +14,15 @@ import java.util.Arrays;
  * caller grouped its {@link #add} calls or when it took snapshots or serialized: the same records in the
  * same order give bit-identical bytes and fingerprints.
  *
+ * <p>Gathered blocks: when the state may use two or more threads and the width is moderate
+ * ({@link Moments#threadsUsed(int, int, int)}), completed blocks wait raw until a group of up to
+ * {@value Moments#MAX_GROUP} has completed; then the blocks' own means and co-moments are computed side by
+ * side on the shared worker threads and merged one after another in record order, so every bit is as if each
+ * block had merged on its own. A block whose merge could overflow (a value or weight above
+ * {@value Moments#GROUP_SAFE_ABS} in magnitude, or a state near overflow) never waits, so an overflow is still
+ * reported by the record that completes its block. {@link #snapshot()}, {@link #fingerprint()} and
+ * {@link #toBytes()} include waiting blocks as merged.
+ *
  * <p>Forgetting with half-life h (event time, never wall-clock time): the intended result is the batch
  * moments in which record i has weight w_i · 2^(−(T − t_i)/h), T the largest event time seen. When a block
  * is merged, let t_s be the state's largest event time and t_b = max(t_s, largest time in the block). The
@@ -45,6 +54,10 @@ public final class MomentStream {
     private double[] pendingWeights;
     private long[] pendingTimes;
     private double[] decayedWeights;
+    /** A buffered row holds a value or weight above {@link Moments#GROUP_SAFE_ABS}. */
+    private boolean largeWaiting;
+    /** Per block of a group merge: the factor scaling the state before it. */
+    private double[] factors;
 
     /**
      * Creates an empty stream.
@@ -112,26 +125,35 @@ public final class MomentStream {
      *     is modified then
      */
     public void add(double[] z, double weight, long eventTimeMs) {
-        RowCheck.row(z, d);
+        boolean large = RowCheck.rowAbove(z, d, Moments.GROUP_SAFE_ABS);
         RowCheck.weight(weight);
-        ensureCapacity(pending + 1);
+        int group = state.blockGroup(blockSize);
+        ensureCapacity(pending + 1, group);
         System.arraycopy(z, 0, pendingRows[pending], 0, d);
         pendingWeights[pending] = weight;
         pendingTimes[pending] = eventTimeMs;
-        if (pending + 1 == blockSize) {
-            mergeRows(state, pending + 1);
+        int rows = pending + 1;
+        if (rows % blockSize == 0 && (rows / blockSize >= group || !mayWait(large, weight))) {
+            mergeFullBlocks(rows / blockSize);
             pending = 0;
+            largeWaiting = false;
         } else {
-            pending++;
+            pending = rows;
+            largeWaiting |= large || weight > Moments.GROUP_SAFE_ABS;
         }
         count++;
     }
 
-    /** New moments: the merged blocks plus the pending rows, merged into a copy as a block would be. */
+    /** New moments: the merged blocks plus the pending rows, merged into a copy as blocks would be. */
     public Moments snapshot() {
         Moments s = state.copy();
-        if (pending > 0) {
-            mergeRows(s, pending);
+        int full = pending / blockSize;
+        if (full > 0) {
+            mergeRows(s, full);
+        }
+        int rest = pending - full * blockSize;
+        if (rest > 0) {
+            mergeRows(s, full * blockSize, rest);
         }
         return s;
     }
@@ -143,7 +165,7 @@ public final class MomentStream {
 
     /** Records of the unfinished block, kept raw. */
     public int pendingRows() {
-        return pending;
+        return pending % blockSize;
     }
 
     /** An independent deep copy. */
@@ -158,11 +180,13 @@ public final class MomentStream {
         }
         c.pendingWeights = pendingWeights.clone();
         c.pendingTimes = pendingTimes.clone();
+        c.largeWaiting = largeWaiting;
         return c;
     }
 
     /** Canonical bytes (layout in the class comment), including the raw pending rows. */
     public byte[] toBytes() {
+        settle();
         int length = HEADER_BYTES + Moments.byteLength(d) + pending * (8 * d + 16);
         ByteBuffer buf = ByteBuffer.allocate(length);
         buf.put(FORMAT_VERSION).putInt(d).putInt(blockSize).putDouble(halfLifeMs).putLong(count).putInt(pending);
@@ -224,7 +248,7 @@ public final class MomentStream {
         }
         s.state = state;
         s.count = count;
-        s.ensureCapacity(pending);
+        s.ensureCapacity(pending, 1);
         double[] rows = new double[pending * width];
         for (int r = 0; r < pending; r++) {
             for (int c = 0; c < width; c++) {
@@ -236,6 +260,8 @@ public final class MomentStream {
         RowCheck.block(rows, s.pendingWeights, s.pendingTimes, pending, width);
         for (int r = 0; r < pending; r++) {
             System.arraycopy(rows, r * width, s.pendingRows[r], 0, width);
+            s.largeWaiting |= RowCheck.rowAbove(s.pendingRows[r], width, Moments.GROUP_SAFE_ABS)
+                    || s.pendingWeights[r] > Moments.GROUP_SAFE_ABS;
         }
         s.pending = pending;
         return s;
@@ -252,37 +278,148 @@ public final class MomentStream {
                 + ", count=" + count + ", pending=" + pending + "]";
     }
 
-    /** Merges the first {@code n} buffered rows into {@code target} as one block, with forgetting. */
-    private void mergeRows(Moments target, int n) {
-        if (halfLifeMs == Double.POSITIVE_INFINITY) {
-            target.mergeBlock(pendingRows, pendingWeights, pendingTimes, n, 1.0);
+    /**
+     * Whether the blocks just completed may wait, unmerged, for the rest of their group: only if no buffered
+     * value or weight (the new record's included) is large and the state is far from overflow, so that their
+     * merge cannot fail later. A merge that can fail thus happens when its last record arrives, as it would
+     * without gathering, and that record's {@link #add} reports it.
+     */
+    private boolean mayWait(boolean large, double weight) {
+        return !largeWaiting && !large && weight <= Moments.GROUP_SAFE_ABS && state.farFromOverflow();
+    }
+
+    /**
+     * Merges the full blocks among the buffered rows into the state, leaving fewer than a block buffered (the
+     * canonical form that {@link #toBytes()} writes). Changes no result: the same blocks merge in the same order
+     * whenever they merge.
+     */
+    private void settle() {
+        int full = pending / blockSize;
+        if (full > 0) {
+            int rest = pending - full * blockSize;
+            mergeFullBlocks(full);
+            pending = rest;
+        }
+    }
+
+    /**
+     * Merges the first {@code blocks} full blocks of buffered rows into the state and moves the buffered rows
+     * after them to the front (the caller sets {@code pending}). If a merge fails, the blocks merged before it
+     * are dropped from the buffer all the same ({@code pending} is lowered by their rows) and the failure is
+     * rethrown: the stream then holds the same records as before the call.
+     */
+    private void mergeFullBlocks(int blocks) {
+        int merged = blocks;
+        try {
+            mergeRows(state, blocks);
+        } catch (Moments.MergeStopped e) {
+            merged = e.merged;
+            throw e;
+        } catch (IllegalArgumentException e) {
+            merged = 0;
+            throw e;
+        } finally {
+            if (merged > 0) {
+                dropFront(merged * blockSize);
+                if (merged < blocks) {
+                    pending -= merged * blockSize;
+                }
+            }
+        }
+    }
+
+    /** Moves buffered rows {@code rows..} to the front, keeping every row array (the buffer is a ring of them). */
+    private void dropFront(int rows) {
+        int capacity = pendingRows.length;
+        if (rows % capacity == 0) {
             return;
         }
+        double[][] moved = new double[capacity][];
+        for (int r = 0; r < capacity; r++) {
+            moved[r] = pendingRows[(r + rows) % capacity];
+        }
+        pendingRows = moved;
+        System.arraycopy(pendingWeights, rows, pendingWeights, 0, capacity - rows);
+        System.arraycopy(pendingTimes, rows, pendingTimes, 0, capacity - rows);
+    }
+
+    /**
+     * Merges buffered rows {@code base..base+n-1} into {@code target} as one block, with forgetting, and
+     * threads for a wide block.
+     */
+    private void mergeRows(Moments target, int base, int n) {
+        if (halfLifeMs == Double.POSITIVE_INFINITY) {
+            target.mergeBlock(pendingRows, base, pendingWeights, pendingTimes, n, 1.0);
+            return;
+        }
+        double factor = decayWeights(target.count(), target.maxEventTimeMs(), base, n);
+        target.mergeBlock(pendingRows, base, decayedWeights, pendingTimes, n, factor);
+    }
+
+    /**
+     * Merges the first {@code blocks} full blocks of buffered rows into {@code target} in order, as that many
+     * calls of {@link #mergeRows(Moments, int, int)} would, but with their summaries computed side by side.
+     *
+     * @throws Moments.MergeStopped if a merge after the first failed (the earlier blocks are merged)
+     */
+    private void mergeRows(Moments target, int blocks) {
+        if (blocks == 1) {
+            mergeRows(target, 0, blockSize);
+            return;
+        }
+        if (factors == null || factors.length < blocks) {
+            factors = new double[blocks];
+        }
+        double[] weights = pendingWeights;
+        if (halfLifeMs == Double.POSITIVE_INFINITY) {
+            Arrays.fill(factors, 1.0);
+        } else {
+            long merged = target.count();
+            long stateMax = target.maxEventTimeMs();
+            for (int b = 0; b < blocks; b++) {
+                int base = b * blockSize;
+                factors[b] = decayWeights(merged, stateMax, base, blockSize);
+                for (int r = base; r < base + blockSize; r++) {
+                    stateMax = Math.max(stateMax, pendingTimes[r]);
+                }
+                merged += blockSize;
+            }
+            weights = decayedWeights;
+        }
+        target.mergeBlocks(pendingRows, weights, pendingTimes, blockSize, blocks, factors);
+    }
+
+    /**
+     * Writes the forgetting weights of buffered rows base..base+n−1 into {@code decayedWeights} (same indices)
+     * and returns the factor for a state of {@code merged} records whose largest event time is
+     * {@code stateMax}: both relative to t_b = max(t_s, the rows' largest time), as the class comment says.
+     */
+    private double decayWeights(long merged, long stateMax, int base, int n) {
         long blockMax = Long.MIN_VALUE;
-        for (int r = 0; r < n; r++) {
+        for (int r = base; r < base + n; r++) {
             blockMax = Math.max(blockMax, pendingTimes[r]);
         }
-        long stateMax = target.maxEventTimeMs();
         long reference = Math.max(stateMax, blockMax);
-        double stateFactor = target.count() == 0 ? 1.0 : decay(reference, stateMax);
-        if (decayedWeights == null || decayedWeights.length < n) {
+        if (decayedWeights == null || decayedWeights.length < pendingWeights.length) {
             decayedWeights = new double[pendingWeights.length];
         }
-        for (int r = 0; r < n; r++) {
+        for (int r = base; r < base + n; r++) {
             decayedWeights[r] = pendingWeights[r] * decay(reference, pendingTimes[r]);
         }
-        target.mergeBlock(pendingRows, decayedWeights, pendingTimes, n, stateFactor);
+        return merged == 0 ? 1.0 : decay(reference, stateMax);
     }
 
     private double decay(long later, long earlier) {
         return Decay.factor(later, earlier, halfLifeMs);
     }
 
-    private void ensureCapacity(int rows) {
+    /** Grows the buffer to hold {@code rows} rows, at most {@code group} blocks. */
+    private void ensureCapacity(int rows, int group) {
         if (rows <= pendingWeights.length) {
             return;
         }
-        int capacity = (int) Math.min(blockSize, Math.max((long) rows, 2L * pendingWeights.length));
+        long most = (long) blockSize * Math.max(1, group);
+        int capacity = (int) Math.min(most, Math.max((long) rows, 2L * pendingWeights.length));
         int old = pendingRows.length;
         pendingRows = Arrays.copyOf(pendingRows, capacity);
         for (int r = old; r < capacity; r++) {

@@ -44,8 +44,10 @@ import java.util.Arrays;
  * and the state is unchanged. Updates allocate nothing except workspaces sized on first use.
  *
  * <p>The rank-k update of a wide block (width above {@value #SERIAL_MAX_WIDTH}) may be split between
- * {@link #threads()} threads, the caller and shared daemon workers, by rows of C; each entry is computed by
- * the same arithmetic whichever thread computes it, so the bytes do not depend on the thread count.
+ * {@link #threads()} threads, the caller and shared daemon workers, by rows of C; blocks of moderate width
+ * gathered by a {@link MomentStream} are summarized side by side, one block per thread, and merged in order
+ * ({@link #mergeBlocks}). Each entry is computed by the same arithmetic whichever thread computes it, so the
+ * bytes do not depend on the thread count.
  *
  * <p>Canonical bytes ({@link #toBytes()}), big-endian: format version (1 byte, {@value #FORMAT_VERSION}),
  * width d (int), count (long), W (double), Σ w² (double), min event time (long), max event time (long),
@@ -70,9 +72,10 @@ public final class Moments {
     /** System property giving the default {@link #threads()} of new moments. */
     public static final String THREADS_PROPERTY = "lariat.moments.threads";
     /**
-     * Widths up to this always update on the calling thread: a stage runs many small keys on one thread, and
-     * measured on 2 processors a second thread made widths 101 and 201 slower and broke even near 300
-     * (DEVELOPERS.md, "Moments: threads").
+     * Widths up to this never split one block's update between threads (measured on 2 processors, a second
+     * thread made widths 101 and 201 slower and broke even near 300); from {@value #GROUP_MIN_WIDTH} a
+     * {@link MomentStream} may instead summarize several blocks at once ({@link #blockGroup};
+     * DEVELOPERS.md, "Moments: threads").
      */
     static final int SERIAL_MAX_WIDTH = 256;
     /** Multiply-adds of one panel below which the block update stays on the calling thread. */
@@ -85,6 +88,14 @@ public final class Moments {
     private static final long SERIAL_MAX_MERGE = 1L << 16;
     /** Parts per thread of a parallel panel update (more parts balance load on a busy machine). */
     private static final int PARTS_PER_THREAD = 4;
+    /** Narrowest width whose blocks are summarized several at a time ({@link #blockGroup}). */
+    static final int GROUP_MIN_WIDTH = 48;
+    /** Multiply-adds of one block's rank-k update below which blocks are not worth a thread. */
+    private static final long GROUP_MIN_WORK = 1L << 20;
+    /** Most blocks gathered for {@link #mergeBlocks}. */
+    static final int MAX_GROUP = 4;
+    /** Values and weights up to this magnitude may wait in a gathered block ({@link #farFromOverflow}). */
+    static final double GROUP_SAFE_ABS = 1e60;
 
     private final int d;
     private final int panelRows;
@@ -98,17 +109,15 @@ public final class Moments {
     private long maxTime = Long.MIN_VALUE;
 
     private final double[] delta;
-    private double[] blockMean;
-    private double[] blockMeanLow;
-    private double[][] panel;
-    private double[][] blockComoment;
+    /** Block workspaces: 0 for {@link #mergeBlock}, 0..b−1 for a group of b blocks. */
+    private BlockWork[] works;
+    private final GroupJob group = new GroupJob();
     private int threads;
     private int[] rowBounds;
     private final BlockJob job = new BlockJob();
     /** Per thread slot: two rows of width d for {@link #mergeRowRange}. */
     private double[][] mergeRows;
-    /** The block being merged: its rows as arrays, or else row-major in blockFlat (read through rowCopy). */
-    private double[][] blockRows;
+    /** The row-major block of {@link #addBlock}, read through rowCopy. */
     private double[] blockFlat;
     private double[] rowCopy;
 
@@ -175,17 +184,29 @@ public final class Moments {
     }
 
     /**
-     * Threads a block update of moments of {@code width} columns allowed {@code threads} threads actually
-     * splits its work between: 1 for widths up to {@value #SERIAL_MAX_WIDTH}, else {@code threads}.
+     * Threads that the block work of a {@link MomentStream} of {@code width} columns and blocks of
+     * {@code blockSize} rows, allowed {@code threads} threads, splits between: for widths up to
+     * {@value #SERIAL_MAX_WIDTH}, the blocks gathered per merge ({@link #blockGroup}); above, {@code threads}.
+     *
+     * @throws IllegalArgumentException unless 1 &lt;= width &lt;= {@link #MAX_WIDTH}, blockSize &gt;= 1 and
+     *     1 &lt;= threads &lt;= 64
      */
-    public static int threadsUsed(int width, int threads) {
-        return width > SERIAL_MAX_WIDTH ? checkThreads(threads) : 1;
+    public static int threadsUsed(int width, int blockSize, int threads) {
+        if (blockSize < 1) {
+            throw new IllegalArgumentException("blockSize must be >= 1, was " + blockSize);
+        }
+        if (width > SERIAL_MAX_WIDTH) {
+            return checkThreads(threads);
+        }
+        Moments m = new Moments(width);
+        m.setThreads(threads);
+        return m.blockGroup(blockSize);
     }
 
     /**
      * Sets the threads a block update of a wide block may use, the calling thread included; the others come
-     * from a shared set of daemon threads. Widths up to {@value #SERIAL_MAX_WIDTH} and small blocks always run
-     * on the calling thread. The result is the same bits for every thread count. Modifies this object only.
+     * from a shared set of daemon threads. Blocks of widths up to {@value #SERIAL_MAX_WIDTH} and small blocks
+     * are never split (a {@link MomentStream} may summarize several of them at once instead). The result is the same bits for every thread count. Modifies this object only.
      *
      * @throws IllegalArgumentException unless 1 &lt;= threads &lt;= 64
      */
@@ -251,7 +272,7 @@ public final class Moments {
             }
             blockFlat = rows;
             try {
-                mergeBlock(null, weights, eventTimesMs, n, 1.0);
+                mergeBlock(null, 0, weights, eventTimesMs, n, 1.0);
             } finally {
                 blockFlat = null;
             }
@@ -566,75 +587,239 @@ public final class Moments {
 
     /**
      * Scales the current state's weights by {@code stateFactor} (as {@link #scale(double)}), then merges the
-     * block of rows {@code 0..n-1} (n &gt;= 1) with the given weights, all atomically. Weights must be finite
-     * and &gt;= 0 (a row whose weight has decayed to zero is counted but carries no weight); the caller has
-     * validated the values. Used directly by {@link MomentStream} for event-time forgetting; {@code rows} null
-     * means the row-major {@code blockFlat} set by {@link #addBlock}. Reads the arrays, modifies this object only.
+     * block of rows {@code base..base+n-1} (n &gt;= 1) with the weights and event times at the same indices, all
+     * atomically. Weights must be finite and &gt;= 0 (a row whose weight has decayed to zero is counted but
+     * carries no weight); the caller has validated the values. Used directly by {@link MomentStream};
+     * {@code rows} null means the row-major {@code blockFlat} set by {@link #addBlock} (then base is 0).
+     * Reads the arrays, modifies this object only.
      */
-    void mergeBlock(double[][] rows, double[] weights, long[] eventTimesMs, int n, double stateFactor) {
-        ensureBlockWorkspace(n);
-        blockRows = rows;
+    void mergeBlock(double[][] rows, int base, double[] weights, long[] eventTimesMs, int n, double stateFactor) {
+        BlockWork w = work(0);
+        w.rows = rows;
+        w.base = base;
         try {
-            mergeRows(weights, eventTimesMs, n, stateFactor);
+            summarize(w, weights, eventTimesMs, n, true);
+            mergeSummary(w, stateFactor);
         } finally {
-            blockRows = null;
+            w.rows = null;
         }
     }
 
     /**
-     * Row r of the block being merged: the caller's array, or a copy in {@code rowCopy} (valid until the next
-     * call), so that the loops over a row index every array alike and compile to SIMD instructions.
+     * Blocks that {@link MomentStream} should gather before merging them with {@link #mergeBlocks}, so that
+     * their summaries are computed on several threads at once: 1 (merge each block as it completes) unless
+     * this may use two or more threads, the width is in [{@value #GROUP_MIN_WIDTH}, {@value #SERIAL_MAX_WIDTH}]
+     * (wider blocks split their own rank-k update between threads instead) and a block of {@code blockSize}
+     * rows is worth a thread.
      */
-    private double[] blockRow(int r) {
-        if (blockRows != null) {
-            return blockRows[r];
+    int blockGroup(int blockSize) {
+        if (threads < 2 || d < GROUP_MIN_WIDTH || d > SERIAL_MAX_WIDTH
+                || (long) blockSize * d * d / 2 < GROUP_MIN_WORK) {
+            return 1;
+        }
+        return Math.min(threads, MAX_GROUP);
+    }
+
+    /**
+     * True when merging blocks whose values and weights are all at most {@link #GROUP_SAFE_ABS} in magnitude
+     * (at most {@value #MAX_GROUP} blocks of at most 2^20 rows) cannot overflow: W &lt;= 1e100, |μ_i| &lt;= 1e100
+     * and C_ii &lt;= 1e200. Then a block W_b &lt;= 2^20·1e60, C_b,ii &lt;= W_b (2·1e60)², and each merge adds at most
+     * C_b,ii + min(W_a, W_b)·δ_i² &lt;= 1e187 + 1e67·(2e100)², far below the largest double.
+     */
+    boolean farFromOverflow() {
+        if (!(totalWeight <= 1e100)) {
+            return false;
+        }
+        for (int i = 0; i < d; i++) {
+            if (!(Math.abs(mean[i]) <= 1e100 && comoment[i * d + i] <= 1e200)) {
+                return false;
+            }
+        }
+        return true;
+    }
+
+    /**
+     * Merges {@code blocks} consecutive blocks of {@code size} rows each (block b is rows b·size..(b+1)·size−1
+     * of {@code rows}, with the weights and event times at the same indices) in order, block b after scaling
+     * the state by {@code stateFactors[b]}: the same bits as {@code blocks} calls of {@link #mergeBlock}, but
+     * the blocks' own means and co-moments (which depend on each block's rows alone) are computed first, on
+     * up to {@code blocks} threads. Reads the arrays, modifies this object only.
+     *
+     * @return the blocks merged, {@code blocks} unless a merge failed
+     * @throws MergeStopped if merging block b would overflow: blocks 0..b−1 are merged, the state is otherwise
+     *     unchanged, and {@link MergeStopped#merged} is b
+     */
+    int mergeBlocks(double[][] rows, double[] weights, long[] eventTimesMs, int size, int blocks,
+            double[] stateFactors) {
+        for (int b = 0; b < blocks; b++) {
+            BlockWork w = work(b);
+            w.rows = rows;
+            w.base = b * size;
+        }
+        try {
+            group.weights = weights;
+            group.times = eventTimesMs;
+            group.size = size;
+            if (blocks > 1 && threads > 1) {
+                Crew.shared(Math.min(threads, blocks)).run(group, blocks);
+            } else {
+                for (int b = 0; b < blocks; b++) {
+                    group.runPart(b, 0);
+                }
+            }
+            for (int b = 0; b < blocks; b++) {
+                try {
+                    mergeSummary(works[b], stateFactors[b]);
+                } catch (IllegalArgumentException e) {
+                    throw new MergeStopped(b, e);
+                }
+            }
+            return blocks;
+        } finally {
+            group.weights = null;
+            group.times = null;
+            for (int b = 0; b < blocks; b++) {
+                works[b].rows = null;
+            }
+        }
+    }
+
+    /** A merge of {@link #mergeBlocks} that failed after merging {@link #merged} blocks; the cause's message. */
+    static final class MergeStopped extends IllegalArgumentException {
+        private static final long serialVersionUID = 1L;
+        /** Blocks merged before the one that failed. */
+        final int merged;
+
+        MergeStopped(int merged, IllegalArgumentException cause) {
+            super(cause.getMessage(), cause);
+            this.merged = merged;
+        }
+    }
+
+    /** Part b of a {@link #mergeBlocks} call: the summary of block b, in workspace b, on one thread. */
+    private final class GroupJob implements Crew.Job {
+        double[] weights;
+        long[] times;
+        int size;
+
+        @Override
+        public void runPart(int part, int slot) {
+            summarize(works[part], weights, times, size, false);
+        }
+    }
+
+    /**
+     * The workspace of one block's summary: where its rows are, its weight, Σ w², event-time range, its mean
+     * as a TwoSum pair, the centered panel and the upper triangle of its co-moment.
+     */
+    private static final class BlockWork {
+        double[][] rows;
+        int base;
+        int n;
+        double weight;
+        double squares;
+        long min;
+        long max;
+        final double[] mean;
+        final double[] meanLow;
+        final double[] sums;
+        /** Centered rows, as many as the largest panel so far needed. */
+        double[][] panel = new double[0][];
+        final double[][] comoment;
+
+        BlockWork(int d) {
+            mean = new double[d];
+            meanLow = new double[d];
+            sums = new double[d];
+            comoment = new double[d][d];
+        }
+    }
+
+    /** Workspace {@code b}, allocated on first use. */
+    private BlockWork work(int b) {
+        if (works == null || works.length <= b) {
+            works = works == null ? new BlockWork[b + 1] : Arrays.copyOf(works, b + 1);
+        }
+        if (works[b] == null) {
+            works[b] = new BlockWork(d);
+        }
+        return works[b];
+    }
+
+    /**
+     * Row r of the block in {@code w}: the caller's array, or a copy in {@code rowCopy} (valid until the next
+     * call; only for workspace 0 on the calling thread), so that the loops over a row index every array alike
+     * and compile to SIMD instructions.
+     */
+    private double[] blockRow(BlockWork w, int r) {
+        if (w.rows != null) {
+            return w.rows[w.base + r];
         }
         System.arraycopy(blockFlat, r * d, rowCopy, 0, d);
         return rowCopy;
     }
 
-    private void mergeRows(double[] weights, long[] eventTimesMs, int n, double stateFactor) {
+    /**
+     * Fills {@code w} with the summary of its block of n rows: weight, Σ w², event-time range, mean and
+     * co-moment (zero weight when the rows carry none). Threads are used for a wide block only if
+     * {@code mayThread}. Reads the rows and the weights and times at indices w.base.., writes {@code w} only.
+     */
+    private void summarize(BlockWork w, double[] weights, long[] eventTimesMs, int n, boolean mayThread) {
+        int base = w.base;
         double blockWeight = 0.0;
         double blockSquares = 0.0;
         long blockMin = Long.MAX_VALUE;
         long blockMax = Long.MIN_VALUE;
-        for (int r = 0; r < n; r++) {
+        for (int r = base; r < base + n; r++) {
             blockWeight += weights[r];
             blockSquares += weights[r] * weights[r];
             blockMin = Math.min(blockMin, eventTimesMs[r]);
             blockMax = Math.max(blockMax, eventTimesMs[r]);
         }
-        Arrays.fill(blockMean, 0.0);
-        Arrays.fill(blockMeanLow, 0.0);
+        Arrays.fill(w.mean, 0.0);
+        Arrays.fill(w.meanLow, 0.0);
+        int panelNeeded = Math.min(n, panelRows);
+        if (w.panel.length < panelNeeded) {
+            w.panel = new double[panelNeeded][d];
+        }
         if (blockWeight > 0.0 && blockSquares > 0.0) {
-            blockMoments(weights, n, blockWeight);
+            blockMoments(w, weights, n, blockWeight, mayThread);
         } else {
             blockWeight = 0.0;
             blockSquares = 0.0;
         }
-        mergeStats(n, blockWeight, blockSquares, blockMean, blockMeanLow, null, blockComoment, blockMin, blockMax,
-                stateFactor);
+        w.n = n;
+        w.weight = blockWeight;
+        w.squares = blockSquares;
+        w.min = blockMin;
+        w.max = blockMax;
     }
 
-    private void ensureBlockWorkspace(int n) {
-        if (blockMean == null) {
-            blockMean = new double[d];
-            blockMeanLow = new double[d];
-            blockComoment = new double[d][d];
-        }
-        int rows = Math.min(n, panelRows);
-        if (panel == null || panel.length < rows) {
-            panel = new double[rows][d];
-        }
+    /** Merges the summary in {@code w} after scaling the state by {@code stateFactor}. */
+    private void mergeSummary(BlockWork w, double stateFactor) {
+        mergeStats(w.n, w.weight, w.squares, w.mean, w.meanLow, null, w.comoment, w.min, w.max, stateFactor);
     }
 
     /**
-     * Fills blockMean + blockMeanLow with the corrected two-pass mean m + Σ w (z − m) / W (Chan, Golub &amp;
-     * LeVeque 1983) as a TwoSum pair, and the upper triangle of blockComoment with the centered co-moment,
-     * accumulated over panels of at most {@code panelRows} rows (the split does not change the result).
+     * Fills w.mean + w.meanLow with the corrected two-pass mean m + Σ w (z − m) / W (Chan, Golub &amp;
+     * LeVeque 1983) as a TwoSum pair, and the upper triangle of w.comoment with the centered co-moment,
+     * accumulated over panels of at most {@code panelRows} rows (the split does not change the result). Without
+     * {@code mayThread} everything runs on the calling thread and touches {@code w} alone (not {@link #job}),
+     * so summaries of different workspaces may run at once.
      */
-    private void blockMoments(double[] weights, int n, double blockWeight) {
-        boolean split = threads > 1 && d > SERIAL_MAX_WIDTH && blockRows != null && (long) n * d >= SERIAL_MAX_PASS;
+    private void blockMoments(BlockWork w, double[] weights, int n, double blockWeight, boolean mayThread) {
+        if (!mayThread) {
+            meanColumns(w, weights, n, blockWeight, 0, d);
+            for (int start = 0; start < n; start += panelRows) {
+                int k = Math.min(panelRows, n - start);
+                centerPanel(w, weights, start, 0, k);
+                updateRows(w, k, start == 0, 0, d);
+            }
+            return;
+        }
+        boolean split = mayThread && threads > 1 && d > SERIAL_MAX_WIDTH && w.rows != null
+                && (long) n * d >= SERIAL_MAX_PASS;
+        job.work = w;
         job.weights = weights;
         job.n = n;
         job.blockWeight = blockWeight;
@@ -644,10 +829,11 @@ public final class Moments {
                 job.start = start;
                 job.k = Math.min(panelRows, n - start);
                 runPasses(split, BlockJob.CENTER);
-                updatePanel(job.k, start == 0);
+                updatePanel(w, job.k, start == 0, mayThread);
             }
         } finally {
             job.weights = null;
+            job.work = null;
         }
     }
 
@@ -663,16 +849,17 @@ public final class Moments {
 
     /**
      * Columns from..to−1 of the corrected two-pass mean: m = Σ w z / W, then m + Σ w (z − m) / W as the TwoSum
-     * pair blockMean + blockMeanLow (delta holds the correction sums). Each column depends on itself alone.
+     * pair w.mean + w.meanLow (w.sums holds the correction sums). Each column depends on itself alone.
      */
-    private void meanColumns(double[] weights, int n, double blockWeight, int from, int to) {
-        double[] m = blockMean;
-        double[] sum = delta;
+    private void meanColumns(BlockWork w, double[] weights, int n, double blockWeight, int from, int to) {
+        double[] m = w.mean;
+        double[] sum = w.sums;
+        int base = w.base;
         for (int r = 0; r < n; r++) {
-            double w = weights[r];
-            double[] z = blockRow(r);
+            double wr = weights[base + r];
+            double[] z = blockRow(w, r);
             for (int c = from; c < to; c++) {
-                m[c] += w * z[c];
+                m[c] += wr * z[c];
             }
         }
         for (int c = from; c < to; c++) {
@@ -680,27 +867,28 @@ public final class Moments {
             sum[c] = 0.0;
         }
         for (int r = 0; r < n; r++) {
-            double w = weights[r];
-            double[] z = blockRow(r);
+            double wr = weights[base + r];
+            double[] z = blockRow(w, r);
             for (int c = from; c < to; c++) {
-                sum[c] += w * (z[c] - m[c]);
+                sum[c] += wr * (z[c] - m[c]);
             }
         }
+        double[] low = w.meanLow;
         for (int c = from; c < to; c++) {
             double correction = sum[c] / blockWeight;
             double hi = m[c] + correction;
-            blockMeanLow[c] = twoSumError(m[c], correction, hi);
+            low[c] = twoSumError(m[c], correction, hi);
             m[c] = hi;
         }
     }
 
     /**
-     * blockComoment += panelᵀ panel for the first k panel rows (after zeroing it if {@code clear}), on several
-     * threads if the panel is wide and large enough.
+     * w.comoment += panelᵀ panel for the first k panel rows (after zeroing it if {@code clear}), on several
+     * threads if {@code mayThread} and the panel is wide and large enough.
      */
-    private void updatePanel(int k, boolean clear) {
-        if (threads == 1 || d <= SERIAL_MAX_WIDTH || (long) d * d * k / 2 < SERIAL_MAX_WORK) {
-            updateRows(k, clear, 0, d);
+    private void updatePanel(BlockWork w, int k, boolean clear, boolean mayThread) {
+        if (!mayThread || threads == 1 || d <= SERIAL_MAX_WIDTH || (long) d * d * k / 2 < SERIAL_MAX_WORK) {
+            updateRows(w, k, clear, 0, d);
             return;
         }
         job.phase = BlockJob.UPDATE;
@@ -709,13 +897,13 @@ public final class Moments {
         runParts();
     }
 
-    private void updateRows(int k, boolean clear, int from, int to) {
+    private void updateRows(BlockWork w, int k, boolean clear, int from, int to) {
         if (clear) {
             for (int i = from; i < to; i++) {
-                Arrays.fill(blockComoment[i], RankUpdate.firstColumn(i), d, 0.0);
+                Arrays.fill(w.comoment[i], RankUpdate.firstColumn(i), d, 0.0);
             }
         }
-        RankUpdate.addUpper(panel, k, d, blockComoment, from, to);
+        RankUpdate.addUpper(w.panel, k, d, w.comoment, from, to);
     }
 
     /** Runs {@link #job} on the shared crew, one part per range of rows of C. */
@@ -739,6 +927,7 @@ public final class Moments {
         static final int UPDATE = 2;
         static final int MERGE = 3;
         int phase;
+        BlockWork work;
         double[] weights;
         int n;
         double blockWeight;
@@ -753,7 +942,7 @@ public final class Moments {
         @Override
         public void runPart(int part, int slot) {
             if (phase == UPDATE) {
-                updateRows(k, clear, rowBounds[part], rowBounds[part + 1]);
+                updateRows(work, k, clear, rowBounds[part], rowBounds[part + 1]);
             } else if (phase == MERGE) {
                 mergeRowRange(stateFactor, weightProduct, flat, rows, rowBounds[part], rowBounds[part + 1], slot);
             } else {
@@ -764,22 +953,23 @@ public final class Moments {
         /** Part {@code part} of {@code parts} equal ranges of a mean or centering pass. */
         void pass(int part, int parts) {
             if (phase == CENTER) {
-                centerPanel(weights, start, k * part / parts, k * (part + 1) / parts);
+                centerPanel(work, weights, start, k * part / parts, k * (part + 1) / parts);
                 return;
             }
             int from = (int) ((long) d * part / parts);
-            meanColumns(weights, n, blockWeight, from, (int) ((long) d * (part + 1) / parts));
+            meanColumns(work, weights, n, blockWeight, from, (int) ((long) d * (part + 1) / parts));
         }
     }
 
     /** Writes √w_r ((z_rc − μ_hi,c) − μ_lo,c) for block rows start + r into panel rows r = from..to−1. */
-    private void centerPanel(double[] weights, int start, int from, int to) {
-        double[] m = blockMean;
-        double[] lo = blockMeanLow;
+    private void centerPanel(BlockWork w, double[] weights, int start, int from, int to) {
+        double[] m = w.mean;
+        double[] lo = w.meanLow;
+        int base = w.base;
         for (int r = from; r < to; r++) {
-            double s = Math.sqrt(weights[start + r]);
-            double[] z = blockRow(start + r);
-            double[] x = panel[r];
+            double s = Math.sqrt(weights[base + start + r]);
+            double[] z = blockRow(w, start + r);
+            double[] x = w.panel[r];
             for (int c = 0; c < d; c++) {
                 x[c] = s * ((z[c] - m[c]) - lo[c]);
             }

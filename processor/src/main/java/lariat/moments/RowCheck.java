@@ -11,18 +11,44 @@ final class RowCheck {
     }
 
     /** Checks that {@code z} has exactly {@code width} finite values. */
+    /**
+     * As {@link #row(double[], int)}, and tells whether some value exceeds {@code limit} in magnitude, at the
+     * cost of the plain check (one comparison per value).
+     */
+    static boolean rowAbove(double[] z, int width, double limit) {
+        shape(z, width);
+        boolean above = false;
+        for (int c = 0; c < width; c++) {
+            if (!(Math.abs(z[c]) <= limit)) {
+                if (!Double.isFinite(z[c])) {
+                    throw nonFinite(c, z[c]);
+                }
+                above = true;
+            }
+        }
+        return above;
+    }
+
     static void row(double[] z, int width) {
+        shape(z, width);
+        for (int c = 0; c < width; c++) {
+            if (!Double.isFinite(z[c])) {
+                throw nonFinite(c, z[c]);
+            }
+        }
+    }
+
+    private static void shape(double[] z, int width) {
         if (z == null) {
             throw new IllegalArgumentException("z is null");
         }
         if (z.length != width) {
             throw new IllegalArgumentException("z has length " + z.length + ", expected width " + width);
         }
-        for (int c = 0; c < width; c++) {
-            if (!Double.isFinite(z[c])) {
-                throw new IllegalArgumentException("column " + c + " has non-finite value " + z[c]);
-            }
-        }
+    }
+
+    private static IllegalArgumentException nonFinite(int c, double v) {
+        return new IllegalArgumentException("column " + c + " has non-finite value " + v);
     }
 
     /** Checks that {@code weight} is finite and strictly positive. */
