@@ -379,9 +379,7 @@ public final class MomentStream {
             for (int b = 0; b < blocks; b++) {
                 int base = b * blockSize;
                 factors[b] = decayWeights(merged, stateMax, base, blockSize);
-                for (int r = base; r < base + blockSize; r++) {
-                    stateMax = Math.max(stateMax, pendingTimes[r]);
-                }
+                stateMax = Math.max(stateMax, latestTime(base, blockSize));
                 merged += blockSize;
             }
             weights = decayedWeights;
@@ -395,11 +393,7 @@ public final class MomentStream {
      * {@code stateMax}: both relative to t_b = max(t_s, the rows' largest time), as the class comment says.
      */
     private double decayWeights(long merged, long stateMax, int base, int n) {
-        long blockMax = Long.MIN_VALUE;
-        for (int r = base; r < base + n; r++) {
-            blockMax = Math.max(blockMax, pendingTimes[r]);
-        }
-        long reference = Math.max(stateMax, blockMax);
+        long reference = Math.max(stateMax, latestTime(base, n));
         if (decayedWeights == null || decayedWeights.length < pendingWeights.length) {
             decayedWeights = new double[pendingWeights.length];
         }
@@ -407,6 +401,15 @@ public final class MomentStream {
             decayedWeights[r] = pendingWeights[r] * decay(reference, pendingTimes[r]);
         }
         return merged == 0 ? 1.0 : decay(reference, stateMax);
+    }
+
+    /** The largest event time of buffered rows base..base+n−1. */
+    private long latestTime(int base, int n) {
+        long latest = Long.MIN_VALUE;
+        for (int r = base; r < base + n; r++) {
+            latest = Math.max(latest, pendingTimes[r]);
+        }
+        return latest;
     }
 
     private double decay(long later, long earlier) {
