@@ -1,5 +1,6 @@
 package lariat.bench;
 
+import java.lang.management.CompilationMXBean;
 import java.lang.management.ManagementFactory;
 import java.lang.management.ThreadMXBean;
 import java.nio.file.Path;
@@ -145,6 +146,7 @@ public final class StageBench {
             c.seekToBeginning(partitions);
             long deadline = System.nanoTime() + RUN_TIMEOUT.toNanos();
             long cpu0 = processCpuNanos();
+            long jit0 = jitMillis();
             long poll0 = CpuClock.nanos();
             long t0 = System.nanoTime();
             long t1 = t0;
@@ -167,7 +169,7 @@ public final class StageBench {
             }
             long poll1 = CpuClock.nanos();
             return StageBenchResult.Phase.of(records, (t1 - t0) / 1e9, (processCpuNanos() - cpu0) / 1e9,
-                    (poll1 - poll0) / 1e9, 0);
+                    (poll1 - poll0) / 1e9, jitSeconds(jit0, jitMillis()), 0);
         }
     }
 
@@ -204,9 +206,11 @@ public final class StageBench {
         }
         long t0 = System.nanoTime();
         long cpu0 = processCpuNanos();
+        long jit0 = jitMillis();
         long poll0 = threadCpuNanos(loop);
         boolean finished = atEnd.await(RUN_TIMEOUT.toMillis(), TimeUnit.MILLISECONDS);
         long cpu1 = processCpuNanos();
+        long jit1 = jitMillis();
         long poll1 = threadCpuNanos(loop);
         stage.shutdown();
         stage.awaitStopped(RUN_TIMEOUT.toMillis());
@@ -219,7 +223,7 @@ public final class StageBench {
             throw new IllegalStateException("the stage consumed " + in + " records, expected " + input.count());
         }
         return StageBenchResult.Phase.of(input.count(), (endNanos[0] - t0) / 1e9, (cpu1 - cpu0) / 1e9,
-                (poll1 - poll0) / 1e9, stage.metrics().transactionsCommitted());
+                (poll1 - poll0) / 1e9, jitSeconds(jit0, jit1), stage.metrics().transactionsCommitted());
     }
 
     private static boolean reachedEnd(Map<Integer, Long> committed, Map<TopicPartition, Long> ends) {
@@ -260,6 +264,16 @@ public final class StageBench {
     }
 
     /** CPU time of {@code thread} in nanoseconds, or 0 when the JVM cannot measure it. */
+    /** The JIT compiler's accumulated time in milliseconds (summed over its threads), or -1 if not reported. */
+    private static long jitMillis() {
+        CompilationMXBean jit = ManagementFactory.getCompilationMXBean();
+        return jit != null && jit.isCompilationTimeMonitoringSupported() ? jit.getTotalCompilationTime() : -1L;
+    }
+
+    private static double jitSeconds(long before, long after) {
+        return before < 0 || after < 0 ? -1.0 : (after - before) / 1e3;
+    }
+
     private static long threadCpuNanos(Thread thread) {
         ThreadMXBean mx = ManagementFactory.getThreadMXBean();
         return mx.isThreadCpuTimeSupported() ? Math.max(0L, mx.getThreadCpuTime(thread.getId())) : 0L;

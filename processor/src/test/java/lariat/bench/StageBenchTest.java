@@ -41,10 +41,10 @@ class StageBenchTest {
 
     @Test
     void toJson_twoRounds_contractKeysFromLastRound() {
-        StageBenchResult.Round first = StageBenchResult.Round.of(StageBenchResult.Phase.of(1000, 1.0, 1.0, 0.5, 0),
-                StageBenchResult.Phase.of(1000, 4.0, 3.0, 2.0, 3));
-        StageBenchResult.Round last = StageBenchResult.Round.of(StageBenchResult.Phase.of(1000, 0.5, 0.4, 0.3, 0),
-                StageBenchResult.Phase.of(1000, 2.0, 1.5, 1.2, 2));
+        StageBenchResult.Round first = StageBenchResult.Round.of(StageBenchResult.Phase.of(1000, 1.0, 1.0, 0.5, 0.2, 0),
+                StageBenchResult.Phase.of(1000, 4.0, 3.0, 2.0, 0.7, 3));
+        StageBenchResult.Round last = StageBenchResult.Round.of(StageBenchResult.Phase.of(1000, 0.5, 0.4, 0.3, 0.1, 0),
+                StageBenchResult.Phase.of(1000, 2.0, 1.5, 1.2, 0.4, 2));
         Map<String, Object> json = StageBenchResult.of(32, 8, 1000, 4, 460.0, List.of(first, last), 2, 1.0, 1.5)
                 .toJson();
         assertEquals(List.of("stage_records_per_s", "consumer_records_per_s", "ratio"),
@@ -57,5 +57,8 @@ class StageBenchTest {
         assertEquals(1200.0, (double) json.get("stage_poll_cpu_us_per_record"), 1e-9);
         assertEquals(0.25, (double) json.get("poll_cpu_ratio"), 1e-12);
         assertEquals(2, ((List<?>) json.get("rounds")).size());
+        Map<?, ?> lastRound = (Map<?, ?>) ((List<?>) json.get("rounds")).get(1);
+        assertEquals(0.1, (double) lastRound.get("consumer_jit_s"), EXACT);
+        assertEquals(0.4, (double) lastRound.get("stage_jit_s"), EXACT);
     }
 }
