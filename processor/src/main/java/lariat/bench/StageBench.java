@@ -263,7 +263,6 @@ public final class StageBench {
         return 0;
     }
 
-    /** CPU time of {@code thread} in nanoseconds, or 0 when the JVM cannot measure it. */
     /** The JIT compiler's accumulated time in milliseconds (summed over its threads), or -1 if not reported. */
     private static long jitMillis() {
         CompilationMXBean jit = ManagementFactory.getCompilationMXBean();
@@ -274,6 +273,7 @@ public final class StageBench {
         return before < 0 || after < 0 ? -1.0 : (after - before) / 1e3;
     }
 
+    /** CPU time of {@code thread} in nanoseconds, or 0 when the JVM cannot measure it. */
     private static long threadCpuNanos(Thread thread) {
         ThreadMXBean mx = ManagementFactory.getThreadMXBean();
         return mx.isThreadCpuTimeSupported() ? Math.max(0L, mx.getThreadCpuTime(thread.getId())) : 0L;

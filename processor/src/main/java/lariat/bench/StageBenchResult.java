@@ -183,16 +183,15 @@ public final class StageBenchResult implements BenchReport {
             String mark = i == rounds.size() - 1 ? "*" : "";
             b.append(String.format("%6s %-9s %10.3f %10.3f %8.3f %12.3f %15.1f %13s %7s %9s%n", (i + 1) + mark,
                     "consumer", r.consumer.seconds, r.consumer.cpuSeconds, r.consumer.jitSeconds,
-                    r.consumer.pollMicrosPerRecord(),
-                    r.consumer.recordsPerSecond(), "-", "", ""));
+                    r.consumer.pollMicrosPerRecord(), r.consumer.recordsPerSecond(), "-", "", ""));
             b.append(String.format("%6s %-9s %10.3f %10.3f %8.3f %12.3f %15.1f %13d %7.3f %9.3f%n", (i + 1) + mark,
                     "stage", r.stage.seconds, r.stage.cpuSeconds, r.stage.jitSeconds, r.stage.pollMicrosPerRecord(),
-                    r.stage.recordsPerSecond(),
-                    r.stage.transactions, r.ratio(), r.pollCpuRatio()));
+                    r.stage.recordsPerSecond(), r.stage.transactions, r.ratio(), r.pollCpuRatio()));
         }
         b.append(String.format("* reported round; ratio = stage / consumer records_per_s; cpu_s = whole process "
                 + "(broker included when embedded); jit_s = time the JIT compiler's threads spent "
-                + "compiling meanwhile (elapsed, summed over them; they compete with the round for processors); poll_us_rec = CPU time of the thread that polls, per record; "
+                + "compiling meanwhile (elapsed, summed over them; they compete with the round for processors); "
+                + "poll_us_rec = CPU time of the thread that polls, per record; "
                 + "cpu_ratio = consumer / stage poll_us_rec, the throughput ratio when each polling thread has a "
                 + "processor to itself and the broker keeps up%nprocessors %d, load average %.2f before, %.2f after%n",
                 processors, loadBefore, loadAfter));

@@ -10,7 +10,6 @@ final class RowCheck {
     private RowCheck() {
     }
 
-    /** Checks that {@code z} has exactly {@code width} finite values. */
     /**
      * As {@link #row(double[], int)}, and tells whether some value exceeds {@code limit} in magnitude, at the
      * cost of the plain check (one comparison per value).
@@ -29,6 +28,7 @@ final class RowCheck {
         return above;
     }
 
+    /** Checks that {@code z} has exactly {@code width} finite values. */
     static void row(double[] z, int width) {
         shape(z, width);
         for (int c = 0; c < width; c++) {
