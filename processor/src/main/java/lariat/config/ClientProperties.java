@@ -33,6 +33,9 @@ final class ClientProperties {
     /** Client keys whose values the stage fixes, with the value (or how it is set). */
     static final Map<String, String> MANAGED = managed();
 
+    /** kafka-clients' default of {@code transaction.timeout.ms}. */
+    static final long DEFAULT_TRANSACTION_TIMEOUT_MS = 60_000;
+
     private static final String[] PREFIXES = {"producer.", "consumer.", "admin."};
 
     private final Map<String, String> shared = new TreeMap<>();
@@ -100,6 +103,25 @@ final class ClientProperties {
         out.put(ConsumerConfig.KEY_DESERIALIZER_CLASS_CONFIG, ByteArrayDeserializer.class.getName());
         out.put(ConsumerConfig.VALUE_DESERIALIZER_CLASS_CONFIG, ByteArrayDeserializer.class.getName());
         return out;
+    }
+
+    /**
+     * The producer's {@code transaction.timeout.ms} as configured (60000, Kafka's default, when
+     * unset).
+     *
+     * @throws IllegalArgumentException naming the key when the value is not a whole number
+     */
+    long transactionTimeoutMs() {
+        Object v = producer().get(ProducerConfig.TRANSACTION_TIMEOUT_CONFIG);
+        if (v == null) {
+            return DEFAULT_TRANSACTION_TIMEOUT_MS;
+        }
+        try {
+            return Long.parseLong(v.toString().trim());
+        } catch (NumberFormatException e) {
+            throw new IllegalArgumentException(ProducerConfig.TRANSACTION_TIMEOUT_CONFIG
+                    + ": not a whole number of milliseconds, got " + v);
+        }
     }
 
     Map<String, Object> admin() {

@@ -160,6 +160,9 @@ public final class StageConfig {
             "Port of the metrics and health endpoint; 0 = no endpoint.", false);
     public static final ConfigKey<Long> SHUTDOWN_TIMEOUT_MS = longRange("shutdown.timeout.ms", "30000", 0,
             600_000, "Longest wait for the current cycle and the clients to close on shutdown.", false);
+    public static final ConfigKey<Long> RESTORE_TIMEOUT_MS = longRange("restore.timeout.ms", "120000", 1000,
+            3_600_000, "Longest wait, on a partition assignment, for its committed offsets and snapshots; then the "
+                    + "stage closes its clients and starts them again.", false);
 
     /** Every Lariat key, in the order of the configuration reference. */
     public static final List<ConfigKey<?>> KEYS = List.of(
@@ -174,7 +177,7 @@ public final class StageConfig {
             SELECT_CV_ONE_SE, SELECT_REFIT,
             MODEL_TOPIC, ALERT_TOPIC, SNAPSHOT_TOPIC, DEADLETTER_TOPIC, CLAIM_TOPIC, SNAPSHOT_CHUNK_BYTES,
             ALERT_PERSIST_REFITS,
-            STAGE_ID, STAGE_INSTANCE, GROUP_ID, METRICS_PORT, SHUTDOWN_TIMEOUT_MS);
+            STAGE_ID, STAGE_INSTANCE, GROUP_ID, METRICS_PORT, SHUTDOWN_TIMEOUT_MS, RESTORE_TIMEOUT_MS);
 
     private static final Map<String, ConfigKey<?>> BY_NAME = byName();
     private static final String HASH_VERSION = "lariat.config.hash.v1";
@@ -226,11 +229,33 @@ public final class StageConfig {
         }
         if (errors.isEmpty()) {
             errors.addAll(CrossChecks.of(values));
+            restoreOutlastsTransactions(values, clients, errors);
         }
         if (!errors.isEmpty()) {
             throw new IllegalArgumentException(String.join("\n", errors));
         }
         return new StageConfig(Collections.unmodifiableMap(values), Set.copyOf(explicit), clients);
+    }
+
+    /**
+     * A dead instance's open transaction hides the snapshots committed after it until the
+     * coordinator aborts it, {@code transaction.timeout.ms} after it began; a restore that gave up
+     * sooner would resume from a stale snapshot, so the restore must be allowed to wait longer.
+     */
+    private static void restoreOutlastsTransactions(Map<ConfigKey<?>, Object> values, ClientProperties clients,
+                                                    List<String> errors) {
+        long restore = (Long) values.get(RESTORE_TIMEOUT_MS);
+        long txn;
+        try {
+            txn = clients.transactionTimeoutMs();
+        } catch (IllegalArgumentException e) {
+            errors.add(e.getMessage());
+            return;
+        }
+        if (restore <= txn) {
+            errors.add(RESTORE_TIMEOUT_MS + ": must be longer than the producer's transaction.timeout.ms = " + txn
+                    + " (an open transaction of a dead instance hides snapshots that long), got " + restore);
+        }
     }
 
     /** Parses {@link Properties}; see {@link #of(Map)}. */

@@ -54,6 +54,7 @@ public final class StageAssembly {
                 .snapshotMaxMessageBytes(Math.max(2 << 20, c.get(StageConfig.SNAPSHOT_CHUNK_BYTES) + (64 << 10)))
                 .metricsPort(port == 0 ? -1 : port)
                 .closeTimeoutMs(c.get(StageConfig.SHUTDOWN_TIMEOUT_MS))
+                .restoreTimeoutMs(c.get(StageConfig.RESTORE_TIMEOUT_MS))
                 .blockSize(c.get(StageConfig.MOMENTS_BLOCK_RECORDS))
                 .halfLifeMs(halfLife == 0 ? Double.POSITIVE_INFINITY : (double) halfLife)
                 .cvFolds(RefitRecipe.of(c).cvFolds())

@@ -88,6 +88,22 @@ class StageConfigTest {
     }
 
     @Test
+    void of_restoreTimeout_mustOutlastTheTransactionTimeout() {
+        assertEquals(120_000L, StageConfig.of(minimal()).get(StageConfig.RESTORE_TIMEOUT_MS));
+        assertEquals(30_000L, StageConfig.of(with("restore.timeout.ms", "30000", "transaction.timeout.ms", "20000"))
+                .get(StageConfig.RESTORE_TIMEOUT_MS));
+        assertEquals("restore.timeout.ms: must be longer than the producer's transaction.timeout.ms = 60000 (an open "
+                + "transaction of a dead instance hides snapshots that long), got 30000",
+                error(with("restore.timeout.ms", "30000")));
+        assertEquals("restore.timeout.ms: must be longer than the producer's transaction.timeout.ms = 200000 (an open "
+                + "transaction of a dead instance hides snapshots that long), got 120000",
+                error(with("producer.transaction.timeout.ms", "200000")));
+        assertEquals("transaction.timeout.ms: not a whole number of milliseconds, got soon",
+                error(with("transaction.timeout.ms", "soon")));
+        assertEquals("restore.timeout.ms: must be in [1000, 3600000], got 999", error(with("restore.timeout.ms", "999")));
+    }
+
+    @Test
     void of_requiredKeyMissing_saysRequired() {
         Map<String, String> m = minimal();
         m.remove("input.topic");
