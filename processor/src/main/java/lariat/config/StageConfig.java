@@ -161,8 +161,8 @@ public final class StageConfig {
     public static final ConfigKey<Long> SHUTDOWN_TIMEOUT_MS = longRange("shutdown.timeout.ms", "30000", 0,
             600_000, "Longest wait for the current cycle and the clients to close on shutdown.", false);
     public static final ConfigKey<Long> RESTORE_TIMEOUT_MS = longRange("restore.timeout.ms", "120000", 1000,
-            3_600_000, "Longest wait, on a partition assignment, for its committed offsets and snapshots; then the "
-                    + "stage closes its clients and starts them again.", false);
+            3_600_000, "Longest wait, on a partition assignment, for its committed offsets (then the stage starts new "
+                    + "clients) and for its snapshots to reach them; must exceed transaction.timeout.ms.", false);
 
     /** Every Lariat key, in the order of the configuration reference. */
     public static final List<ConfigKey<?>> KEYS = List.of(
