@@ -9,8 +9,11 @@ import lariat.moments.Moments;
 /**
  * Times the streaming moments update: every row of a {@link SyntheticRows} problem (z of width p + 1) goes
  * through {@link MomentStream#add} with unit weight and no forgetting, then one {@link MomentStream#snapshot()}
- * folds in the partial block. Row generation is not timed. One untimed warm-up pass over up to
- * {@link #WARMUP_ROWS} rows comes first; then {@code repeat} timed passes, each on a fresh stream. The stream
+ * folds in the partial block. Row generation is not timed. Untimed warm-up passes come first, each on a fresh
+ * stream, so that the JIT compiler has compiled the update before the clock runs (a short fixed warm-up left
+ * the kernel half compiled: at p = 100 the median of three passes was half the steady rate): one over up to
+ * {@link #WARMUP_ROWS} rows, then passes over all rows until {@code warmupSeconds} have passed (the last may
+ * overrun). Then {@code repeat} timed passes, each on a fresh stream. The stream
  * uses the given number of threads ({@link MomentStream#setThreads}); CPU time is measured both for all Java
  * threads (the stream's worker threads included) and for the benchmark thread alone.
  */
@@ -24,16 +27,23 @@ public final class MomentsBench {
     private MomentsBench() {
     }
 
-    /** {@link #run(int, int, int, int, long, int)} with {@link Moments#defaultThreads()} threads. */
+    /** Seconds of warm-up when the caller gives none. */
+    public static final double DEFAULT_WARMUP_SECONDS = 1.0;
+
+    /**
+     * {@link #run(int, int, int, int, long, int, double)} with {@link Moments#defaultThreads()} threads and
+     * {@link #DEFAULT_WARMUP_SECONDS}.
+     */
     public static MomentsResult run(int features, int rows, int blockSize, int repeat, long seed) {
-        return run(features, rows, blockSize, repeat, seed, Moments.defaultThreads());
+        return run(features, rows, blockSize, repeat, seed, Moments.defaultThreads(), DEFAULT_WARMUP_SECONDS);
     }
 
     /**
      * @throws IllegalArgumentException if features &lt; 1, rows &lt; 2, blockSize &lt; 1, repeat &lt; 1 or threads is
      *     outside [1, 64]
      */
-    public static MomentsResult run(int features, int rows, int blockSize, int repeat, long seed, int threads) {
+    public static MomentsResult run(int features, int rows, int blockSize, int repeat, long seed, int threads,
+                                    double warmupSeconds) {
         if (threads < 1 || threads > 64) {
             throw new IllegalArgumentException("threads must be in [1, 64], was " + threads);
         }
@@ -43,10 +53,18 @@ public final class MomentsBench {
         if (repeat < 1) {
             throw new IllegalArgumentException("repeat must be >= 1, was " + repeat);
         }
+        if (!(warmupSeconds >= 0) || Double.isInfinite(warmupSeconds)) {
+            throw new IllegalArgumentException("warmup-s must be finite and >= 0, was " + warmupSeconds);
+        }
         SyntheticRows data = SyntheticRows.of(features, rows, seed);
         int d = features + 1;
         double[] z = new double[d];
+        long warmStart = System.nanoTime();
         pass(data, Math.min(rows, WARMUP_ROWS), blockSize, threads, z);
+        while ((System.nanoTime() - warmStart) * 1e-9 < warmupSeconds) {
+            pass(data, rows, blockSize, threads, z);
+        }
+        double warmedSeconds = (System.nanoTime() - warmStart) * 1e-9;
         double[] seconds = new double[repeat];
         double[] cpu = new double[repeat];
         double[] callerCpu = new double[repeat];
@@ -63,8 +81,7 @@ public final class MomentsBench {
             }
         }
         return MomentsResult.of(features, rows, blockSize, threads, Moments.threadsUsed(d, blockSize, threads),
-                Timings.of(seconds), Timings.of(cpu),
-                Timings.of(callerCpu));
+                Timings.of(seconds), Timings.of(cpu), Timings.of(callerCpu), warmedSeconds);
     }
 
     /**

@@ -124,8 +124,13 @@ public final class BenchCommand implements Runnable {
                 description = "Records per moments block (default: ${DEFAULT-VALUE}).")
         int blockSize;
 
-        @Option(names = "--repeat", defaultValue = "3", description = "Timed passes (default: ${DEFAULT-VALUE}).")
+        @Option(names = "--repeat", defaultValue = "5", description = "Timed passes (default: ${DEFAULT-VALUE}).")
         int repeat;
+
+        @Option(names = "--warmup-s", defaultValue = "" + MomentsBench.DEFAULT_WARMUP_SECONDS,
+                description = "Seconds of untimed warm-up passes, so that the timed ones run compiled code; 0 for "
+                        + "one short pass only (default: ${DEFAULT-VALUE}).")
+        double warmupSeconds;
 
         @Option(names = "--threads", description = "Threads a block merge may use, the benchmark thread included "
                 + "(default: the system property lariat.moments.threads, else the available processors). Widths "
@@ -138,7 +143,8 @@ public final class BenchCommand implements Runnable {
         @Override
         public Integer call() throws IOException, InterruptedException {
             int t = threads != null ? threads : lariat.moments.Moments.defaultThreads();
-            return report(spec, common, () -> MomentsBench.run(features, rows, blockSize, repeat, common.seed, t));
+            return report(spec, common, () -> MomentsBench.run(features, rows, blockSize, repeat, common.seed, t,
+                    warmupSeconds));
         }
     }
 

@@ -1,6 +1,7 @@
 package lariat.bench;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.List;
@@ -42,6 +43,16 @@ class BenchJsonTest {
         assertEquals(300 / median, rate, 1e-9 * rate);
         assertEquals(6, json.get("width"));
         assertEquals(16, json.get("block_size"));
+        assertTrue((Double) json.get("warmup_s") > 0, "one short warm-up pass at least");
+    }
+
+    @Test
+    void momentsWarmup_givenSeconds_passesAtLeastThatLongBeforeTiming() {
+        Map<String, Object> json = MomentsBench.run(5, 300, 16, 2, 11L, 1, 0.2).toJson();
+        assertTrue((Double) json.get("warmup_s") >= 0.2, "warm-up of " + json.get("warmup_s") + " s");
+        assertThrows(IllegalArgumentException.class, () -> MomentsBench.run(5, 300, 16, 2, 11L, 1, -1));
+        assertThrows(IllegalArgumentException.class, () -> MomentsBench.run(5, 300, 16, 2, 11L, 1,
+                Double.POSITIVE_INFINITY));
     }
 
     @Test
