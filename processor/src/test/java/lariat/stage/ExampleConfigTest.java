@@ -22,5 +22,17 @@ class ExampleConfigTest {
         assertEquals("station.readings", s.inputTopic());
         assertEquals(500, s.refitEveryRecords());
         assertEquals(2, s.alertPersistence());
+        assertEquals(120_000, s.restoreTimeoutMs(), "the documented default of restore.timeout.ms");
+    }
+
+    @Test
+    void settings_restoreTimeout_reachesTheStage() throws IOException {
+        Properties p = new Properties();
+        try (InputStream in = ExampleConfigTest.class.getResourceAsStream("/examples/stage.properties")) {
+            p.load(in);
+        }
+        p.setProperty("restore.timeout.ms", "30000");
+        p.setProperty("transaction.timeout.ms", "20000");
+        assertEquals(30_000, StageAssembly.settings(StageConfig.of(p)).restoreTimeoutMs());
     }
 }
