@@ -39,8 +39,8 @@ public final class MomentsBench {
     }
 
     /**
-     * @throws IllegalArgumentException if features &lt; 1, rows &lt; 2, blockSize &lt; 1, repeat &lt; 1 or threads is
-     *     outside [1, 64]
+     * @throws IllegalArgumentException if features &lt; 1, rows &lt; 2, blockSize &lt; 1, repeat &lt; 1, threads is
+     *     outside [1, 64] or warmupSeconds is negative or not finite
      */
     public static MomentsResult run(int features, int rows, int blockSize, int repeat, long seed, int threads,
                                     double warmupSeconds) {
