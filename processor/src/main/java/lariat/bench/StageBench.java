@@ -169,7 +169,7 @@ public final class StageBench {
             }
             long poll1 = CpuClock.nanos();
             return StageBenchResult.Phase.of(records, (t1 - t0) / 1e9, (processCpuNanos() - cpu0) / 1e9,
-                    (poll1 - poll0) / 1e9, jitSeconds(jit0, jitMillis()), 0);
+                    (poll1 - poll0) / 1e9, jitSeconds(jit0, jitMillis()), 0, 0);
         }
     }
 
@@ -180,12 +180,14 @@ public final class StageBench {
         Map<Integer, Long> committed = new HashMap<>();
         CountDownLatch atEnd = new CountDownLatch(1);
         long[] endNanos = new long[1];
+        double[] commitSecondsAtEnd = new double[1];
         stage.onCommit(offsets -> {
             for (Map.Entry<TopicPartition, OffsetAndMetadata> e : offsets.entrySet()) {
                 committed.put(e.getKey().partition(), e.getValue().offset());
             }
             if (reachedEnd(committed, ends) && atEnd.getCount() > 0) {
                 endNanos[0] = System.nanoTime();
+                commitSecondsAtEnd[0] = stage.metrics().commitSeconds();
                 atEnd.countDown();
             }
         });
@@ -223,7 +225,8 @@ public final class StageBench {
             throw new IllegalStateException("the stage consumed " + in + " records, expected " + input.count());
         }
         return StageBenchResult.Phase.of(input.count(), (endNanos[0] - t0) / 1e9, (cpu1 - cpu0) / 1e9,
-                (poll1 - poll0) / 1e9, jitSeconds(jit0, jit1), stage.metrics().transactionsCommitted());
+                (poll1 - poll0) / 1e9, jitSeconds(jit0, jit1), stage.metrics().transactionsCommitted(),
+                commitSecondsAtEnd[0]);
     }
 
     private static boolean reachedEnd(Map<Integer, Long> committed, Map<TopicPartition, Long> ends) {

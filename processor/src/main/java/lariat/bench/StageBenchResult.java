@@ -20,29 +20,32 @@ public final class StageBenchResult implements BenchReport {
         final double pollCpuSeconds;
         final double jitSeconds;
         final long transactions;
+        final double commitSeconds;
 
         private Phase(int records, double seconds, double cpuSeconds, double pollCpuSeconds, double jitSeconds,
-                      long transactions) {
+                      long transactions, double commitSeconds) {
             this.records = records;
             this.seconds = seconds;
             this.cpuSeconds = cpuSeconds;
             this.pollCpuSeconds = pollCpuSeconds;
             this.jitSeconds = jitSeconds;
             this.transactions = transactions;
+            this.commitSeconds = commitSeconds;
         }
 
         /**
          * A pass of {@code records} records that took {@code seconds} of wall time, {@code cpuSeconds} of
          * process CPU time, {@code pollCpuSeconds} of CPU time on the thread that called poll, and
          * {@code jitSeconds} of the JIT compiler's time (summed over its threads; negative when the JVM
-         * does not report it).
+         * does not report it), committing {@code transactions} transactions in {@code commitSeconds} of wall
+         * time (from beginning each to its commit returning; 0 for the plain consumer).
          */
         static Phase of(int records, double seconds, double cpuSeconds, double pollCpuSeconds, double jitSeconds,
-                        long transactions) {
+                        long transactions, double commitSeconds) {
             if (!(seconds > 0)) {
                 throw new IllegalArgumentException("seconds must be positive, got " + seconds);
             }
-            return new Phase(records, seconds, cpuSeconds, pollCpuSeconds, jitSeconds, transactions);
+            return new Phase(records, seconds, cpuSeconds, pollCpuSeconds, jitSeconds, transactions, commitSeconds);
         }
 
         double recordsPerSecond() {
@@ -163,6 +166,7 @@ public final class StageBenchResult implements BenchReport {
             o.put("stage_jit_s", r.stage.jitSeconds);
             o.put("stage_records_per_s", r.stage.recordsPerSecond());
             o.put("stage_transactions", r.stage.transactions);
+            o.put("stage_commit_s", r.stage.commitSeconds);
             o.put("ratio", r.ratio());
             o.put("poll_cpu_ratio", r.pollCpuRatio());
             all.add(o);
@@ -176,22 +180,26 @@ public final class StageBenchResult implements BenchReport {
         StringBuilder b = new StringBuilder();
         b.append(String.format("features %d, keys %d, records %d, partitions %d, mean value %.0f bytes%n", features,
                 keys, records, partitions, meanValueBytes));
-        b.append(String.format("%6s %-9s %10s %10s %8s %12s %15s %13s %7s %9s%n", "round", "reader", "elapsed_s",
-                "cpu_s", "jit_s", "poll_us_rec", "records_per_s", "transactions", "ratio", "cpu_ratio"));
+        b.append(String.format("%6s %-9s %10s %10s %8s %12s %15s %13s %9s %7s %9s%n", "round", "reader",
+                "elapsed_s", "cpu_s", "jit_s", "poll_us_rec", "records_per_s", "transactions", "commit_s", "ratio",
+                "cpu_ratio"));
         for (int i = 0; i < rounds.size(); i++) {
             Round r = rounds.get(i);
             String mark = i == rounds.size() - 1 ? "*" : "";
-            b.append(String.format("%6s %-9s %10.3f %10.3f %8.3f %12.3f %15.1f %13s %7s %9s%n", (i + 1) + mark,
+            b.append(String.format("%6s %-9s %10.3f %10.3f %8.3f %12.3f %15.1f %13s %9s %7s %9s%n", (i + 1) + mark,
                     "consumer", r.consumer.seconds, r.consumer.cpuSeconds, r.consumer.jitSeconds,
-                    r.consumer.pollMicrosPerRecord(), r.consumer.recordsPerSecond(), "-", "", ""));
-            b.append(String.format("%6s %-9s %10.3f %10.3f %8.3f %12.3f %15.1f %13d %7.3f %9.3f%n", (i + 1) + mark,
-                    "stage", r.stage.seconds, r.stage.cpuSeconds, r.stage.jitSeconds, r.stage.pollMicrosPerRecord(),
-                    r.stage.recordsPerSecond(), r.stage.transactions, r.ratio(), r.pollCpuRatio()));
+                    r.consumer.pollMicrosPerRecord(), r.consumer.recordsPerSecond(), "-", "-", "", ""));
+            b.append(String.format("%6s %-9s %10.3f %10.3f %8.3f %12.3f %15.1f %13d %9.3f %7.3f %9.3f%n",
+                    (i + 1) + mark, "stage", r.stage.seconds, r.stage.cpuSeconds, r.stage.jitSeconds,
+                    r.stage.pollMicrosPerRecord(), r.stage.recordsPerSecond(), r.stage.transactions,
+                    r.stage.commitSeconds, r.ratio(), r.pollCpuRatio()));
         }
         b.append(String.format("* reported round; ratio = stage / consumer records_per_s; cpu_s = whole process "
                 + "(broker included when embedded); jit_s = time the JIT compiler's threads spent "
                 + "compiling meanwhile (elapsed, summed over them; they compete with the round for processors); "
-                + "poll_us_rec = CPU time of the thread that polls, per record; "
+                + "poll_us_rec = CPU time of the thread that polls, per record; commit_s = wall time the stage "
+                + "spent from beginning each transaction to its commit returning (sends, offsets, commit), "
+                + "part of elapsed_s; "
                 + "cpu_ratio = consumer / stage poll_us_rec, the throughput ratio when each polling thread has a "
                 + "processor to itself and the broker keeps up%nprocessors %d, load average %.2f before, %.2f after%n",
                 processors, loadBefore, loadAfter));

@@ -351,6 +351,7 @@ public final class Stage implements AutoCloseable {
         for (KeyState k : unclaimed) {
             out.add(claimLog.claim(k, now));
         }
+        long begin = System.nanoTime();
         producer.beginTransaction();
         inTransaction = true;
         for (ProducerRecord<byte[], byte[]> r : out) {
@@ -383,7 +384,7 @@ public final class Stage implements AutoCloseable {
         }
         producer.commitTransaction();
         inTransaction = false;
-        metrics.transactionCommitted();
+        metrics.transactionCommitted((System.nanoTime() - begin) / 1e9);
         for (KeyState k : unclaimed) {
             claims.sent(k.modelKey(), k.partition());
         }

@@ -24,6 +24,7 @@ public final class StageMetrics {
     private final LongAdder versionsPublished = new LongAdder();
     private final LongAdder alerts = new LongAdder();
     private final LongAdder committed = new LongAdder();
+    private final DoubleAdder commitSeconds = new DoubleAdder();
     private final LongAdder aborted = new LongAdder();
     private final LongAdder fatalRecoveries = new LongAdder();
     private final DoubleAdder restoreSeconds = new DoubleAdder();
@@ -75,8 +76,19 @@ public final class StageMetrics {
         alerts.increment();
     }
 
-    public void transactionCommitted() {
+    /**
+     * Counts one committed transaction whose commit took {@code seconds}: from beginning the
+     * transaction to the return of {@code commitTransaction} (sending the cycle's records and
+     * offsets, then committing), the time the polling thread does not read input.
+     */
+    public void transactionCommitted(double seconds) {
         committed.increment();
+        commitSeconds.add(seconds);
+    }
+
+    /** Wall seconds spent committing transactions so far ({@link #transactionCommitted(double)}). */
+    public double commitSeconds() {
+        return commitSeconds.sum();
     }
 
     public void transactionAborted() {
@@ -178,6 +190,8 @@ public final class StageMetrics {
                 versionsPublished.sum());
         counter(out, "lariat_alerts_total", "Change alerts sent.", alerts.sum());
         counter(out, "lariat_transactions_committed_total", "Transactions committed.", committed.sum());
+        counter(out, "lariat_commit_seconds_total", "Wall seconds from beginning a transaction to its commit "
+                + "returning (sends, offsets, commit), committed transactions only.", commitSeconds.sum());
         counter(out, "lariat_transactions_aborted_total", "Transactions aborted.", aborted.sum());
         counter(out, "lariat_fatal_recoveries_total", "Client re-creations after a fatal error.",
                 fatalRecoveries.sum());

@@ -41,10 +41,10 @@ class StageBenchTest {
 
     @Test
     void toJson_twoRounds_contractKeysFromLastRound() {
-        StageBenchResult.Round first = StageBenchResult.Round.of(StageBenchResult.Phase.of(1000, 1.0, 1.0, 0.5, 0.2, 0),
-                StageBenchResult.Phase.of(1000, 4.0, 3.0, 2.0, 0.7, 3));
-        StageBenchResult.Round last = StageBenchResult.Round.of(StageBenchResult.Phase.of(1000, 0.5, 0.4, 0.3, 0.1, 0),
-                StageBenchResult.Phase.of(1000, 2.0, 1.5, 1.2, 0.4, 2));
+        StageBenchResult.Round first = StageBenchResult.Round.of(StageBenchResult.Phase.of(1000, 1.0, 1.0, 0.5, 0.2, 0, 0),
+                StageBenchResult.Phase.of(1000, 4.0, 3.0, 2.0, 0.7, 3, 0.9));
+        StageBenchResult.Round last = StageBenchResult.Round.of(StageBenchResult.Phase.of(1000, 0.5, 0.4, 0.3, 0.1, 0, 0),
+                StageBenchResult.Phase.of(1000, 2.0, 1.5, 1.2, 0.4, 2, 0.25));
         Map<String, Object> json = StageBenchResult.of(32, 8, 1000, 4, 460.0, List.of(first, last), 2, 1.0, 1.5)
                 .toJson();
         assertEquals(List.of("stage_records_per_s", "consumer_records_per_s", "ratio"),
@@ -60,5 +60,7 @@ class StageBenchTest {
         Map<?, ?> lastRound = (Map<?, ?>) ((List<?>) json.get("rounds")).get(1);
         assertEquals(0.1, (double) lastRound.get("consumer_jit_s"), EXACT);
         assertEquals(0.4, (double) lastRound.get("stage_jit_s"), EXACT);
+        assertEquals(0.25, (double) lastRound.get("stage_commit_s"), EXACT);
+        assertEquals(2L, lastRound.get("stage_transactions"));
     }
 }

@@ -2,6 +2,7 @@ package lariat.stage;
 
 import org.junit.jupiter.api.Test;
 
+import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 class StageMetricsTest {
@@ -19,6 +20,19 @@ class StageMetricsTest {
         assertTrue(text.contains("lariat_records_rejected_total{reason=\"BAD_MARKER\"} 1\n"), text);
         assertTrue(text.contains("lariat_refit_seconds_total 0.25\n"), text);
         assertTrue(text.contains("# TYPE lariat_consumer_lag_records gauge\nlariat_consumer_lag_records 17\n"), text);
+    }
+
+    @Test
+    void transactionCommitted_sumsCommitSeconds() {
+        StageMetrics m = new StageMetrics();
+        m.transactionCommitted(0.25);
+        m.transactionCommitted(0.5);
+        assertEquals(2, m.transactionsCommitted());
+        assertEquals(0.75, m.commitSeconds(), 0.0);
+        String text = m.render();
+        assertTrue(text.contains("lariat_transactions_committed_total 2\n"), text);
+        assertTrue(text.contains("# TYPE lariat_commit_seconds_total counter\nlariat_commit_seconds_total 0.75\n"),
+                text);
     }
 
     @Test
