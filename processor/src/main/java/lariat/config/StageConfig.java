@@ -162,7 +162,7 @@ public final class StageConfig {
             600_000, "Longest wait for the current cycle and the clients to close on shutdown.", false);
     public static final ConfigKey<Long> RESTORE_TIMEOUT_MS = longRange("restore.timeout.ms", "120000", 1000,
             3_600_000, "Longest wait, on a partition assignment, for its committed offsets (then the stage starts new "
-                    + "clients) and for its snapshots to reach them; must exceed transaction.timeout.ms.", false);
+                    + "clients) and for its snapshots to reach them; at least transaction.timeout.ms + 15000.", false);
 
     /** Every Lariat key, in the order of the configuration reference. */
     public static final List<ConfigKey<?>> KEYS = List.of(
@@ -238,9 +238,18 @@ public final class StageConfig {
     }
 
     /**
+     * Margin of {@code restore.timeout.ms} over {@code transaction.timeout.ms}: the transaction
+     * coordinator aborts a timed-out transaction at its next check, every
+     * {@code transaction.abort.timed.out.transaction.cleanup.interval.ms} (a broker setting, 10 s
+     * by default), and then writes the abort markers.
+     */
+    static final long RESTORE_MARGIN_MS = 15_000;
+
+    /**
      * A dead instance's open transaction hides the snapshots committed after it until the
-     * coordinator aborts it, {@code transaction.timeout.ms} after it began; a restore that gave up
-     * sooner would resume from a stale snapshot, so the restore must be allowed to wait longer.
+     * coordinator aborts it, up to {@code transaction.timeout.ms} plus the coordinator's check
+     * interval after it began; a restore that gave up sooner would resume from a stale snapshot, so
+     * the restore must be allowed to wait longer.
      */
     private static void restoreOutlastsTransactions(Map<ConfigKey<?>, Object> values, ClientProperties clients,
                                                     List<String> errors) {
@@ -252,9 +261,10 @@ public final class StageConfig {
             errors.add(e.getMessage());
             return;
         }
-        if (restore <= txn) {
-            errors.add(RESTORE_TIMEOUT_MS + ": must be longer than the producer's transaction.timeout.ms = " + txn
-                    + " (an open transaction of a dead instance hides snapshots that long), got " + restore);
+        if (restore < txn + RESTORE_MARGIN_MS) {
+            errors.add(RESTORE_TIMEOUT_MS + ": must be at least the producer's transaction.timeout.ms = " + txn
+                    + " plus " + RESTORE_MARGIN_MS + " (an open transaction of a dead instance hides snapshots until "
+                    + "the broker aborts it), got " + restore);
         }
     }
 

@@ -90,13 +90,14 @@ class StageConfigTest {
     @Test
     void of_restoreTimeout_mustOutlastTheTransactionTimeout() {
         assertEquals(120_000L, StageConfig.of(minimal()).get(StageConfig.RESTORE_TIMEOUT_MS));
-        assertEquals(30_000L, StageConfig.of(with("restore.timeout.ms", "30000", "transaction.timeout.ms", "20000"))
+        assertEquals(30_000L, StageConfig.of(with("restore.timeout.ms", "30000", "transaction.timeout.ms", "15000"))
                 .get(StageConfig.RESTORE_TIMEOUT_MS));
-        assertEquals("restore.timeout.ms: must be longer than the producer's transaction.timeout.ms = 60000 (an open "
-                + "transaction of a dead instance hides snapshots that long), got 30000",
-                error(with("restore.timeout.ms", "30000")));
-        assertEquals("restore.timeout.ms: must be longer than the producer's transaction.timeout.ms = 200000 (an open "
-                + "transaction of a dead instance hides snapshots that long), got 120000",
+        assertEquals("restore.timeout.ms: must be at least the producer's transaction.timeout.ms = 60000 plus 15000 "
+                + "(an open transaction of a dead instance hides snapshots until the broker aborts it), got 74999",
+                error(with("restore.timeout.ms", "74999")));
+        assertEquals(75_000L, StageConfig.of(with("restore.timeout.ms", "75000")).get(StageConfig.RESTORE_TIMEOUT_MS));
+        assertEquals("restore.timeout.ms: must be at least the producer's transaction.timeout.ms = 200000 plus 15000 "
+                + "(an open transaction of a dead instance hides snapshots until the broker aborts it), got 120000",
                 error(with("producer.transaction.timeout.ms", "200000")));
         assertEquals("transaction.timeout.ms: not a whole number of milliseconds, got soon",
                 error(with("transaction.timeout.ms", "soon")));

@@ -32,7 +32,7 @@ class ExampleConfigTest {
             p.load(in);
         }
         p.setProperty("restore.timeout.ms", "30000");
-        p.setProperty("transaction.timeout.ms", "20000");
+        p.setProperty("transaction.timeout.ms", "15000");
         assertEquals(30_000, StageAssembly.settings(StageConfig.of(p)).restoreTimeoutMs());
     }
 }

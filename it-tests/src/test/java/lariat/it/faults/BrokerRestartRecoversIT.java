@@ -23,8 +23,9 @@ import org.junit.jupiter.api.Test;
  * fatal error: its outcome is unknown) and the new producer's {@code initTransactions} times out
  * too while the broker is down: the stage must keep retrying rather than exit (it used to exit).
  * A coordinator still loading after the restart can hold back the committed-offset fetch of a
- * restore; {@code restore.timeout.ms} is 30 s here (transaction timeout 20 s, which it must exceed),
- * so that the stage gives up on such a restore and starts new clients well within the test's wait.
+ * restore; {@code restore.timeout.ms} is 30 s here (the transaction timeout is 15 s, and the restore
+ * must wait 15 s longer), so that the stage gives up on such a restore and starts new clients well
+ * within the test's wait.
  *
  * <p>Checked afterwards through a read_committed reader: versions 1..n per station and last models
  * whose moments fingerprints equal the offline {@link MomentOracle}'s, bit for bit. Needs the
@@ -45,7 +46,7 @@ class BrokerRestartRecoversIT {
         Random moments = new Random(SEED);
         long[] outagesMs = {2_000 + moments.nextInt(4_000), 15_000 + moments.nextInt(5_000)};
         try (FaultRun run = FaultRun.create("restart", 3, Map.of("producer.max.block.ms", "5000",
-                "transaction.timeout.ms", "20000", "restore.timeout.ms", "30000"));
+                "transaction.timeout.ms", "15000", "restore.timeout.ms", "30000"));
              ReadingFeeder feeder = ReadingFeeder.start(run, SEED, STATIONS, 60, 100_000)) {
             StageProcess stage = run.start("0");
             for (long outage : outagesMs) {
