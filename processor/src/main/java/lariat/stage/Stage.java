@@ -592,8 +592,11 @@ public final class Stage implements AutoCloseable {
             }
             long position = c != null ? c.offset() : Math.max(snap.nextOffset, 0);
             if (c != null && snap.nextOffset >= 0 && snap.nextOffset != c.offset()) {
-                LOG.warn("{}: committed offset {} differs from the snapshot's position {}; using the committed one",
-                        tp, c.offset(), snap.nextOffset);
+                metrics.restoreOffsetMismatch();
+                LOG.warn("{}: committed offset {} differs from the snapshot's position {}; using the committed one, "
+                        + "so the moments {} the {} records in between (lariat_restore_offset_mismatches_total)",
+                        tp, c.offset(), snap.nextOffset, c.offset() > snap.nextOffset ? "miss" : "count twice",
+                        Math.abs(c.offset() - snap.nextOffset));
             }
             consumer.seek(tp, position);
             LOG.info("restored {}: {} keys, resuming at offset {}", tp, states.of(tp.partition()).size(), position);

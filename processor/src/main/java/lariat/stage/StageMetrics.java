@@ -31,6 +31,7 @@ public final class StageMetrics {
     private final LongAdder restores = new LongAdder();
     private final LongAdder snapshotBytes = new LongAdder();
     private final LongAdder snapshotsIncomplete = new LongAdder();
+    private final LongAdder restoreOffsetMismatches = new LongAdder();
     private final LongAdder keysOnTwoPartitions = new LongAdder();
     private final LongAdder keyClaimConflicts = new LongAdder();
     private final AtomicLong keyClaims = new AtomicLong();
@@ -107,6 +108,19 @@ public final class StageMetrics {
 
     public void snapshotBytes(long bytes) {
         snapshotBytes.add(bytes);
+    }
+
+    /**
+     * Counts one partition restored from a snapshot whose position differed from the committed offset:
+     * the moments then miss, or fold in twice, the records in between.
+     */
+    public void restoreOffsetMismatch() {
+        restoreOffsetMismatches.increment();
+    }
+
+    /** Partitions restored with a snapshot position other than the committed offset, so far. */
+    public long restoreOffsetMismatches() {
+        return restoreOffsetMismatches.sum();
     }
 
     public void snapshotIncomplete() {
@@ -201,6 +215,10 @@ public final class StageMetrics {
         counter(out, "lariat_snapshot_bytes_total", "Snapshot state bytes written.", snapshotBytes.sum());
         counter(out, "lariat_snapshots_incomplete_total", "Snapshots skipped on restore as incomplete.",
                 snapshotsIncomplete.sum());
+        counter(out, "lariat_restore_offset_mismatches_total", "Partitions restored from a snapshot whose position "
+                + "differed from the committed offset (offsets moved on purpose, or the snapshot still hidden after "
+                + "restore.timeout.ms); their moments miss or repeat the records in between.",
+                restoreOffsetMismatches.sum());
         counter(out, "lariat_keys_on_two_partitions_total", "Records whose key lives on, or is owned by, another "
                 + "partition.",
                 keysOnTwoPartitions.sum());

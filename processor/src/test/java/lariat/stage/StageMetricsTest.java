@@ -36,6 +36,15 @@ class StageMetricsTest {
     }
 
     @Test
+    void restoreOffsetMismatch_countedAndRendered() {
+        StageMetrics m = new StageMetrics();
+        m.restoreOffsetMismatch();
+        assertEquals(1, m.restoreOffsetMismatches());
+        assertTrue(m.render().contains("# TYPE lariat_restore_offset_mismatches_total counter\n"
+                + "lariat_restore_offset_mismatches_total 1\n"), m.render());
+    }
+
+    @Test
     void render_keyClaims_conflictCounterAndClaimGauge() {
         StageMetrics m = new StageMetrics();
         m.keyClaimConflict();
