@@ -164,6 +164,14 @@ public final class StageConfig {
             3_600_000, "Longest wait, on a partition assignment, for its committed offsets (then the stage starts new "
                     + "clients) and for its snapshots to reach them; at least transaction.timeout.ms + 15000.", false);
 
+    /**
+     * Margin of {@code restore.timeout.ms} over {@code transaction.timeout.ms}: the transaction
+     * coordinator aborts a timed-out transaction at its next check, every
+     * {@code transaction.abort.timed.out.transaction.cleanup.interval.ms} (a broker setting, 10 s
+     * by default), and then writes the abort markers.
+     */
+    static final long RESTORE_MARGIN_MS = 15_000;
+
     /** Every Lariat key, in the order of the configuration reference. */
     public static final List<ConfigKey<?>> KEYS = List.of(
             INPUT_TOPIC, INPUT_FORMAT, INPUT_SCHEMA_FILE, INPUT_WRITER_SCHEMA_FILES, FIELD_TARGET, FIELD_FEATURES,
@@ -236,14 +244,6 @@ public final class StageConfig {
         }
         return new StageConfig(Collections.unmodifiableMap(values), Set.copyOf(explicit), clients);
     }
-
-    /**
-     * Margin of {@code restore.timeout.ms} over {@code transaction.timeout.ms}: the transaction
-     * coordinator aborts a timed-out transaction at its next check, every
-     * {@code transaction.abort.timed.out.transaction.cleanup.interval.ms} (a broker setting, 10 s
-     * by default), and then writes the abort markers.
-     */
-    static final long RESTORE_MARGIN_MS = 15_000;
 
     /**
      * A dead instance's open transaction hides the snapshots committed after it until the
