@@ -60,6 +60,11 @@ public final class StageBench {
             "alert.persist.refits", "2",
             "metrics.port", "0");
 
+    /** Keys the benchmark sets from its input and run; {@code --set} cannot override them. */
+    static final Set<String> INPUT_KEYS = Set.of("bootstrap.servers", "stage.id", "stage.instance", "input.topic",
+            "input.format", "field.key", "field.time", "field.weight", "field.features.map", "field.target",
+            "field.features", "model.topic", "alert.topic", "snapshot.topic", "deadletter.topic", "claim.topic");
+
     private static final Duration RUN_TIMEOUT = Duration.ofMinutes(10);
 
     private StageBench() {
@@ -72,32 +77,66 @@ public final class StageBench {
      */
     public static StageBenchResult run(int features, int keys, int records, int partitions, int rounds,
                                        long seed, String bootstrapServers) throws InterruptedException {
+        return run(features, keys, records, partitions, rounds, seed, bootstrapServers, Map.of());
+    }
+
+    /**
+     * Runs the benchmark with {@code overrides} laid over {@link #STAGE_SETTINGS} (Lariat keys and Kafka
+     * client properties of the benchmarked stage).
+     *
+     * @throws IllegalArgumentException naming the argument when a count is below 1, or naming the key when
+     *                                  an override names a key the benchmark sets from its input
+     *                                  ({@link #INPUT_KEYS}) or the stage configuration refuses it
+     */
+    public static StageBenchResult run(int features, int keys, int records, int partitions, int rounds,
+                                       long seed, String bootstrapServers, Map<String, String> overrides)
+            throws InterruptedException {
         if (rounds < 1) {
             throw new IllegalArgumentException("rounds must be at least 1, got " + rounds);
         }
+        Map<String, String> settings = settings(overrides);
+        StageConfig.of(stageProperties("localhost:9092", "check", "check", features, settings));
         StageBenchRecords input = StageBenchRecords.of(features, keys, records, partitions, seed);
         double loadBefore = loadAverage();
         if (bootstrapServers != null) {
-            return measure(input, partitions, rounds, bootstrapServers, loadBefore);
+            return measure(input, partitions, rounds, bootstrapServers, settings, loadBefore);
         }
         try (EmbeddedBroker broker = EmbeddedBroker.start()) {
-            return measure(input, partitions, rounds, broker.bootstrapServers(), loadBefore);
+            return measure(input, partitions, rounds, broker.bootstrapServers(), settings, loadBefore);
         }
     }
 
+    /**
+     * {@link #STAGE_SETTINGS} with {@code overrides} laid over them, in key order.
+     *
+     * @throws IllegalArgumentException naming the key when an override names one of {@link #INPUT_KEYS}
+     */
+    static Map<String, String> settings(Map<String, String> overrides) {
+        Map<String, String> out = new java.util.TreeMap<>(STAGE_SETTINGS);
+        for (Map.Entry<String, String> e : overrides.entrySet()) {
+            if (INPUT_KEYS.contains(e.getKey())) {
+                throw new IllegalArgumentException(e.getKey() + ": set by the benchmark from its input, "
+                        + "cannot be overridden");
+            }
+            out.put(e.getKey(), e.getValue());
+        }
+        return out;
+    }
+
     private static StageBenchResult measure(StageBenchRecords input, int partitions, int rounds, String servers,
-                                            double loadBefore) throws InterruptedException {
+                                            Map<String, String> settings, double loadBefore)
+            throws InterruptedException {
         String run = "lariat-bench-" + UUID.randomUUID().toString().substring(0, 8);
         String topic = run + ".input";
         Map<TopicPartition, Long> ends = load(servers, topic, partitions, input);
         List<StageBenchResult.Round> done = new ArrayList<>();
         for (int r = 0; r < rounds; r++) {
             StageBenchResult.Phase consumer = plainConsumer(servers, topic, input.count(), ends.keySet());
-            StageBenchResult.Phase stage = stage(servers, topic, run + "-r" + r, input, ends);
+            StageBenchResult.Phase stage = stage(servers, topic, run + "-r" + r, input, settings, ends);
             done.add(StageBenchResult.Round.of(consumer, stage));
         }
         return StageBenchResult.of(input.features(), input.keys(), input.count(), partitions, input.meanValueBytes(),
-                done, Runtime.getRuntime().availableProcessors(), loadBefore, loadAverage());
+                settings, done, Runtime.getRuntime().availableProcessors(), loadBefore, loadAverage());
     }
 
     /** Creates the topic, sends every record, and returns each partition's end offset. */
@@ -174,9 +213,10 @@ public final class StageBench {
     }
 
     private static StageBenchResult.Phase stage(String servers, String topic, String id, StageBenchRecords input,
-                                                Map<TopicPartition, Long> ends) throws InterruptedException {
-        Stage stage = StageAssembly.create(StageConfig.of(stageProperties(servers, topic, id, input.features())),
-                Path.of("."));
+                                                Map<String, String> settings, Map<TopicPartition, Long> ends)
+            throws InterruptedException {
+        Stage stage = StageAssembly.create(StageConfig.of(stageProperties(servers, topic, id, input.features(),
+                settings)), Path.of("."));
         Map<Integer, Long> committed = new HashMap<>();
         CountDownLatch atEnd = new CountDownLatch(1);
         long[] endNanos = new long[1];
@@ -239,7 +279,12 @@ public final class StageBench {
     }
 
     static Map<String, String> stageProperties(String servers, String topic, String id, int features) {
-        Map<String, String> p = new LinkedHashMap<>(STAGE_SETTINGS);
+        return stageProperties(servers, topic, id, features, STAGE_SETTINGS);
+    }
+
+    private static Map<String, String> stageProperties(String servers, String topic, String id, int features,
+                                                       Map<String, String> settings) {
+        Map<String, String> p = new LinkedHashMap<>(settings);
         p.put("bootstrap.servers", servers);
         p.put("stage.id", id);
         p.put("stage.instance", "0");

@@ -94,9 +94,11 @@ public final class StageBenchResult implements BenchReport {
     private final int processors;
     private final double loadBefore;
     private final double loadAfter;
+    private final Map<String, String> settings;
 
     private StageBenchResult(int features, int keys, int records, int partitions, double meanValueBytes,
-                             List<Round> rounds, int processors, double loadBefore, double loadAfter) {
+                             Map<String, String> settings, List<Round> rounds, int processors, double loadBefore,
+                             double loadAfter) {
         this.features = features;
         this.keys = keys;
         this.records = records;
@@ -106,14 +108,17 @@ public final class StageBenchResult implements BenchReport {
         this.processors = processors;
         this.loadBefore = loadBefore;
         this.loadAfter = loadAfter;
+        this.settings = Map.copyOf(settings);
     }
 
+    /** A result; {@code settings} are the benchmarked stage's settings beyond the input's (topics, fields). */
     static StageBenchResult of(int features, int keys, int records, int partitions, double meanValueBytes,
-                               List<Round> rounds, int processors, double loadBefore, double loadAfter) {
+                               Map<String, String> settings, List<Round> rounds, int processors, double loadBefore,
+                               double loadAfter) {
         if (rounds.isEmpty()) {
             throw new IllegalArgumentException("rounds must not be empty");
         }
-        return new StageBenchResult(features, keys, records, partitions, meanValueBytes, rounds, processors,
+        return new StageBenchResult(features, keys, records, partitions, meanValueBytes, settings, rounds, processors,
                 loadBefore, loadAfter);
     }
 
@@ -148,7 +153,7 @@ public final class StageBenchResult implements BenchReport {
         m.put("records", records);
         m.put("partitions", partitions);
         m.put("mean_value_bytes", meanValueBytes);
-        m.put("stage_settings", new java.util.TreeMap<>(StageBench.STAGE_SETTINGS));
+        m.put("stage_settings", new java.util.TreeMap<>(settings));
         m.put("processors", processors);
         m.put("load_average_before", loadBefore);
         m.put("load_average_after", loadAfter);
@@ -180,6 +185,15 @@ public final class StageBenchResult implements BenchReport {
         StringBuilder b = new StringBuilder();
         b.append(String.format("features %d, keys %d, records %d, partitions %d, mean value %.0f bytes%n", features,
                 keys, records, partitions, meanValueBytes));
+        List<String> changed = new ArrayList<>();
+        new java.util.TreeMap<>(settings).forEach((k, v) -> {
+            if (!v.equals(StageBench.STAGE_SETTINGS.get(k))) {
+                changed.add(k + "=" + v);
+            }
+        });
+        if (!changed.isEmpty()) {
+            b.append("stage settings over the defaults: ").append(String.join(", ", changed)).append(String.format("%n"));
+        }
         b.append(String.format("%6s %-9s %10s %10s %8s %12s %15s %13s %9s %7s %9s%n", "round", "reader",
                 "elapsed_s", "cpu_s", "jit_s", "poll_us_rec", "records_per_s", "transactions", "commit_s", "ratio",
                 "cpu_ratio"));

@@ -5,6 +5,7 @@ import com.fasterxml.jackson.databind.SerializationFeature;
 import java.io.File;
 import java.io.IOException;
 import java.io.PrintWriter;
+import java.util.LinkedHashMap;
 import java.util.Map;
 import java.util.concurrent.Callable;
 import lariat.bench.BenchReport;
@@ -179,13 +180,19 @@ public final class BenchCommand implements Runnable {
         @Option(names = "--bootstrap-servers", description = "Use this cluster instead of an embedded broker.")
         String bootstrapServers;
 
+        @Option(names = "--set", paramLabel = "KEY=VALUE", description = "A setting of the benchmarked stage over "
+                + "its defaults, repeatable: a Lariat key or a Kafka client property, e.g. --set "
+                + "producer.batch.size=16384 --set moments.block.records=256 (topics, fields and stage.id "
+                + "are the benchmark's own).")
+        Map<String, String> overrides = new LinkedHashMap<>();
+
         @CommandLine.Mixin
         Common common;
 
         @Override
         public Integer call() throws IOException, InterruptedException {
             return report(spec, common, () -> StageBench.run(features, keys, records, partitions, rounds, common.seed,
-                    bootstrapServers));
+                    bootstrapServers, overrides));
         }
     }
 }

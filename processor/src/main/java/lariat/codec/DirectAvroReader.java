@@ -382,7 +382,7 @@ final class DirectAvroReader {
             if (count < 0 || count > end - pos) {
                 throw DECLINE;
             }
-            for (long j = 0; j < count; j++, e++) {
+            for (int j = (int) count; j > 0; j--, e++) {
                 int len = length();
                 int off = pos;
                 pos += len;

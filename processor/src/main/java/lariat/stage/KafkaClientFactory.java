@@ -54,6 +54,9 @@ public final class KafkaClientFactory implements ClientFactory {
         return ungrouped("-claims");
     }
 
+    /** The producer's {@code batch.size} unless configured. */
+    static final int BATCH_BYTES = 256 * 1024;
+
     @Override
     public Producer<byte[], byte[]> producer() {
         Map<String, Object> p = s.producerProperties();
@@ -69,6 +72,12 @@ public final class KafkaClientFactory implements ClientFactory {
         // then adds about that much to the next commit. Backoff still grows exponentially up to
         // retry.backoff.max.ms (1 s by default) during an outage.
         p.putIfAbsent(ProducerConfig.RETRY_BACKOFF_MS_CONFIG, 10);
+        // A cycle's snapshots of one partition (about 10 KiB a key at 32 channels) filled several
+        // batches of the default 16 KiB, and the first transaction of a new producer then waited
+        // about 200 ms for the later produce requests to partitions the transaction did not hold
+        // yet; with 256 KiB batches each partition's snapshots go in one request (bench stage,
+        // P = 32, K = 8: commit 0.06 - 0.10 s against 0.28 - 0.36 s).
+        p.putIfAbsent(ProducerConfig.BATCH_SIZE_CONFIG, BATCH_BYTES);
         p.put(ProducerConfig.CLIENT_ID_CONFIG, s.transactionalId() + "-producer");
         return new KafkaProducer<>(p, new ByteArraySerializer(), new ByteArraySerializer());
     }

@@ -2,6 +2,7 @@ package lariat.bench;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertInstanceOf;
+import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.List;
@@ -45,8 +46,8 @@ class StageBenchTest {
                 StageBenchResult.Phase.of(1000, 4.0, 3.0, 2.0, 0.7, 3, 0.9));
         StageBenchResult.Round last = StageBenchResult.Round.of(StageBenchResult.Phase.of(1000, 0.5, 0.4, 0.3, 0.1, 0, 0),
                 StageBenchResult.Phase.of(1000, 2.0, 1.5, 1.2, 0.4, 2, 0.25));
-        Map<String, Object> json = StageBenchResult.of(32, 8, 1000, 4, 460.0, List.of(first, last), 2, 1.0, 1.5)
-                .toJson();
+        Map<String, Object> json = StageBenchResult.of(32, 8, 1000, 4, 460.0, StageBench.STAGE_SETTINGS,
+                List.of(first, last), 2, 1.0, 1.5).toJson();
         assertEquals(List.of("stage_records_per_s", "consumer_records_per_s", "ratio"),
                 List.copyOf(json.keySet()).subList(0, 3));
         assertEquals(500.0, (double) json.get("stage_records_per_s"), EXACT);
@@ -62,5 +63,27 @@ class StageBenchTest {
         assertEquals(0.4, (double) lastRound.get("stage_jit_s"), EXACT);
         assertEquals(0.25, (double) lastRound.get("stage_commit_s"), EXACT);
         assertEquals(2L, lastRound.get("stage_transactions"));
+    }
+
+    @Test
+    void settings_overrides_laidOverDefaultsAndShownInJsonAndTable() {
+        Map<String, String> s = StageBench.settings(Map.of("producer.batch.size", "16384",
+                "moments.block.records", "256"));
+        assertEquals("16384", s.get("producer.batch.size"));
+        assertEquals("256", s.get("moments.block.records"));
+        assertEquals(StageBench.STAGE_SETTINGS.get("select.rule"), s.get("select.rule"));
+        StageBenchResult.Phase p = StageBenchResult.Phase.of(1000, 1.0, 1.0, 0.5, 0.2, 0, 0);
+        StageBenchResult r = StageBenchResult.of(32, 8, 1000, 4, 460.0, s, List.of(StageBenchResult.Round.of(p, p)),
+                2, 1.0, 1.5);
+        assertEquals(s, r.toJson().get("stage_settings"));
+        assertTrue(r.table().contains("stage settings over the defaults: moments.block.records=256, "
+                + "producer.batch.size=16384"), r.table());
+    }
+
+    @Test
+    void settings_overrideOfAnInputKey_refusedNamingTheKey() {
+        IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+                () -> StageBench.settings(Map.of("input.topic", "elsewhere")));
+        assertTrue(e.getMessage().startsWith("input.topic: "), e.getMessage());
     }
 }
