@@ -36,6 +36,8 @@ final class DirectAvroReader {
             SystemLimitException.MAX_COLLECTION_LENGTH_PROPERTY, SystemLimitException.MAX_STRING_LENGTH_PROPERTY,
             SystemLimitException.MAX_COLLECTION_ALLOCATION_PROPERTY);
     private static final int LAYOUT_CACHE_LIMIT = 1 << 14;
+    /** Map templates kept for a fixed layout (writers that send channels in a few orders). */
+    private static final int TEMPLATES = 4;
 
     /** What one branch of a used field holds, as the fast path reads it. */
     private static final byte OTHER = 0;
@@ -116,6 +118,10 @@ final class DirectAvroReader {
     private RowBuffer row;
     private boolean mapped;
     private boolean mapFilled;
+    private final MapTemplate[] templates = new MapTemplate[TEMPLATES];
+    private int nextTemplate;
+    private int[] slotOff = new int[64];
+    private int[] slotCol = new int[64];
 
     private DirectAvroReader(Schema reader, FieldMapper.Plan p, Map<String, Role> roleOf, Map<String, Integer> columns,
                              boolean singleObject) {
@@ -372,12 +378,26 @@ final class DirectAvroReader {
     /**
      * Reads the map straight into the row's columns by the fixed layout's table, declining on a repeated
      * column or a column that holds no number; {@link #mapFilled} tells whether every column was found.
+     * A map whose bytes match a {@link MapTemplate} everywhere but in its double values is read by the
+     * template; any other map is parsed entry by entry, and a parsed map whose values are all doubles
+     * becomes a template.
      */
     private void mapInto(ChannelTable t) {
         double[] z = row.values(t.columns());
+        for (MapTemplate m : templates) {
+            if (m != null && m.matches(buf, pos, end)) {
+                m.read(buf, pos, z);
+                pos += m.length;
+                mapped = true;
+                mapFilled = m.filled;
+                return;
+            }
+        }
+        int base = pos;
         int mark = nextMark(t.columns());
         int found = 0;
         int e = 0;
+        boolean doubles = true;
         for (long count = varLong(); count != 0; count = varLong()) {
             if (count < 0 || count > end - pos) {
                 throw DECLINE;
@@ -388,20 +408,30 @@ final class DirectAvroReader {
                 pos += len;
                 int c = t.column(e, buf, off, len);
                 double v;
-                if (plainDoubles) {
-                    v = number(DOUBLE);
-                } else {
+                byte kind = DOUBLE;
+                if (!plainDoubles) {
                     int b = branch(mapValues);
-                    byte kind = mapValues.kinds[b];
+                    kind = mapValues.kinds[b];
                     if (kind < INT || kind > DOUBLE) {
                         if (c >= 0) {
                             throw DECLINE;
                         }
                         skip(mapValues.branches[b]);
+                        doubles = false;
                         continue;
                     }
-                    v = number(kind);
                 }
+                if (kind == DOUBLE) {
+                    if (e == slotOff.length) {
+                        slotOff = Arrays.copyOf(slotOff, 2 * e);
+                        slotCol = Arrays.copyOf(slotCol, 2 * e);
+                    }
+                    slotOff[e] = pos - base;
+                    slotCol[e] = c;
+                } else {
+                    doubles = false;
+                }
+                v = number(kind);
                 if (c >= 0) {
                     if (seen[c] == mark) {
                         throw DECLINE;
@@ -414,6 +444,98 @@ final class DirectAvroReader {
         }
         mapped = true;
         mapFilled = found == t.columns();
+        if (doubles) {
+            templates[nextTemplate] = MapTemplate.of(buf, base, pos, slotOff, slotCol, e, mapFilled);
+            nextTemplate = (nextTemplate + 1) % TEMPLATES;
+        }
+    }
+
+    /**
+     * The bytes of one parsed channel map with its values taken out: block counts, name lengths, names and
+     * union branch indexes as little-endian words under masks, and where each double value sits and which
+     * column it fills (-1: a channel outside the layout). A map whose bytes equal the template's at every
+     * byte outside the values parses, by the Avro binary encoding, to the same entries in the same order,
+     * so reading the values at the template's places gives the same row as parsing it; the values
+     * themselves are checked afterwards as any parsed value is. Immutable.
+     */
+    private static final class MapTemplate {
+        final int length;
+        final boolean filled;
+        private final int[] wordOff;
+        private final long[] word;
+        private final long[] mask;
+        private final int[] valueOff;
+        private final int[] valueCol;
+
+        private MapTemplate(int length, boolean filled, int[] wordOff, long[] word, long[] mask, int[] valueOff,
+                            int[] valueCol) {
+            this.length = length;
+            this.filled = filled;
+            this.wordOff = wordOff;
+            this.word = word;
+            this.mask = mask;
+            this.valueOff = valueOff;
+            this.valueCol = valueCol;
+        }
+
+        /** The template of {@code b[from, to)}, a map of {@code values} doubles at offsets {@code off} (from {@code from}). */
+        static MapTemplate of(byte[] b, int from, int to, int[] off, int[] col, int values, boolean filled) {
+            int[] wo = new int[to - from];
+            long[] w = new long[wo.length];
+            long[] m = new long[wo.length];
+            int words = 0;
+            int at = 0;
+            for (int v = 0; v <= values; v++) {
+                int stop = v < values ? off[v] : to - from;
+                while (at < stop) {
+                    int n = Math.min(8, stop - at);
+                    long mk = n == 8 ? -1L : (1L << (8 * n)) - 1;
+                    wo[words] = at;
+                    m[words] = mk;
+                    w[words] = load(b, from + at) & mk;
+                    words++;
+                    at += n;
+                }
+                at += 8;
+            }
+            return new MapTemplate(to - from, filled, Arrays.copyOf(wo, words), Arrays.copyOf(w, words),
+                    Arrays.copyOf(m, words), Arrays.copyOf(off, values), Arrays.copyOf(col, values));
+        }
+
+        /** Whether {@code b[at, at + length)} fits before {@code end} and equals the template outside its values. */
+        boolean matches(byte[] b, int at, int end) {
+            if (end - at < length) {
+                return false;
+            }
+            for (int i = 0; i < word.length; i++) {
+                if ((load(b, at + wordOff[i]) & mask[i]) != word[i]) {
+                    return false;
+                }
+            }
+            return true;
+        }
+
+        /** Reads the values of the map at {@code at} into their columns of {@code z}. */
+        void read(byte[] b, int at, double[] z) {
+            for (int i = 0; i < valueOff.length; i++) {
+                int c = valueCol[i];
+                if (c >= 0) {
+                    z[c] = Double.longBitsToDouble((long) LONG_LE.get(b, at + valueOff[i]));
+                }
+            }
+        }
+
+        /** Eight bytes from {@code at} as a little-endian word, bytes past the array's end read as zero. */
+        private static long load(byte[] b, int at) {
+            if (at + 8 <= b.length) {
+                return (long) LONG_LE.get(b, at);
+            }
+            long v = 0;
+            for (int i = b.length - at - 1; i >= 0; i--) {
+                v = (v << 8) | (b[at + i] & 0xFF);
+            }
+            return v;
+        }
     }
 
     /** A fresh mark for {@link #seen} over {@code columns} columns. */

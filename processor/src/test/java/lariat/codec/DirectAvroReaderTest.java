@@ -111,6 +111,59 @@ class DirectAvroReaderTest {
         assertTrue(fast.directAccepted() > CASES / 2, "fast path taken, got " + fast.directAccepted());
     }
 
+    /**
+     * The map template: once a record has taught the fast path its channel map's bytes, every record that
+     * differs from the next valid record in one byte (each position of the body, each of several values:
+     * name bytes, lengths, block counts, the weight, the value bytes) or in its length (one byte cut off or
+     * appended) agrees with the general path, and so does the valid record read by the template after each.
+     */
+    @Test
+    void decodeInto_everyOneByteChangeAfterATemplate_agreesWithGeneralPath() throws IOException {
+        Map<String, String> p = baseProps();
+        p.put("field.features", "flow,head,vib_1x,temp,x\u00e9");
+        RecordDecoder fast = RecordDecoder.create(StageConfig.of(p), dir);
+        RecordDecoder general = RecordDecoder.create(StageConfig.of(p), dir);
+        Random rnd = new Random(17L);
+        KeyLayouts lf = KeyLayouts.create();
+        KeyLayouts lg = KeyLayouts.create();
+        RowBuffer row = RowBuffer.create();
+        byte[] teach = bundled(STATIONS[0], rnd);
+        assertTrue(agree(general.decode(null, teach, -1, lg), fast.decodeInto(null, teach, -1, lf, row), row));
+        assertTrue(agree(general.decode(null, teach, -1, lg), fast.decodeInto(null, teach, -1, lf, row), row));
+        byte[] v = bundled(STATIONS[0], rnd);
+        int[] replacements = {0, 1, 2, 0x7F, 0x80, 0xFF};
+        int rejected = 0;
+        int cases = 0;
+        for (int at = 0; at <= v.length; at++) {
+            List<byte[]> variants = new ArrayList<>();
+            if (at < v.length) {
+                for (int x : replacements) {
+                    if ((byte) x != v[at]) {
+                        byte[] b = v.clone();
+                        b[at] = (byte) x;
+                        variants.add(b);
+                    }
+                }
+                byte[] flip = v.clone();
+                flip[at] ^= 0x20;
+                variants.add(flip);
+            } else {
+                variants.add(Arrays.copyOf(v, v.length - 1));
+                variants.add(Arrays.copyOf(v, v.length + 1));
+            }
+            for (byte[] b : variants) {
+                cases++;
+                rejected += agree(general.decode(null, b, -1, lg), fast.decodeInto(null, b, -1, lf, row), row) ? 0 : 1;
+                long before = fast.directAccepted();
+                assertTrue(agree(general.decode(null, v, -1, lg), fast.decodeInto(null, v, -1, lf, row), row),
+                        "the valid record after a change at byte " + at);
+                assertEquals(before + 1, fast.directAccepted(), "fast path took the valid record after byte " + at);
+            }
+        }
+        assertTrue(rejected > cases / 4, "many changes rejected: " + rejected + " of " + cases);
+        assertTrue(rejected < cases, "some changes still valid records: " + rejected + " of " + cases);
+    }
+
     @Test
     void decodeInto_topLevelFieldsWithOlderWriter_agreesWithGeneralPath() {
         Map<String, String> p = CodecFixtures.pumpProps();
