@@ -9,6 +9,7 @@ import java.util.LinkedHashMap;
 import java.util.Map;
 import java.util.concurrent.Callable;
 import lariat.bench.BenchReport;
+import lariat.bench.DecodeBench;
 import lariat.bench.MomentsBench;
 import lariat.bench.PathBench;
 import lariat.bench.StageBench;
@@ -19,7 +20,8 @@ import picocli.CommandLine.Option;
 /** {@code lariat bench}: speed of the path refit and of the moments update on seeded synthetic data. */
 @Command(name = "bench", mixinStandardHelpOptions = true,
         description = "Benchmarks on synthetic data: Gaussian rows, 10% true nonzeros, seeded.",
-        subcommands = {BenchCommand.Path.class, BenchCommand.MomentsUpdate.class, BenchCommand.StageThroughput.class})
+        subcommands = {BenchCommand.Path.class, BenchCommand.MomentsUpdate.class, BenchCommand.StageThroughput.class,
+            BenchCommand.Decode.class})
 public final class BenchCommand implements Runnable {
 
     @CommandLine.Spec
@@ -193,6 +195,44 @@ public final class BenchCommand implements Runnable {
         public Integer call() throws IOException, InterruptedException {
             return report(spec, common, () -> StageBench.run(features, keys, records, partitions, rounds, common.seed,
                     bootstrapServers, overrides));
+        }
+    }
+
+    /** {@code lariat bench decode}. */
+    @Command(name = "decode", mixinStandardHelpOptions = true,
+            description = {"Time the stage's decoding of input values into rows, next to the general path.",
+                "Encodes N Avro single-object readings over K keys with P channels each (the records of bench "
+                    + "stage), checks that the stage's fast path and the general path (Avro's GenericDatumReader "
+                    + "and the field mapping) read every record to the same bits, then times passes of each "
+                    + "over all records on one thread, in turn."})
+    static final class Decode implements Callable<Integer> {
+        @CommandLine.Spec
+        CommandLine.Model.CommandSpec spec;
+
+        @Option(names = "--features", required = true, description = "Feature channels per record P.")
+        int features;
+
+        @Option(names = "--keys", defaultValue = "8", description = "Model keys K (default: ${DEFAULT-VALUE}).")
+        int keys;
+
+        @Option(names = "--records", required = true, description = "Records N in all.")
+        int records;
+
+        @Option(names = "--repeat", defaultValue = "5", description = "Timed passes of each path "
+                + "(default: ${DEFAULT-VALUE}).")
+        int repeat;
+
+        @Option(names = "--warmup-s", defaultValue = "1.0", description = "Seconds of untimed passes of both paths "
+                + "first (default: ${DEFAULT-VALUE}).")
+        double warmupSeconds;
+
+        @CommandLine.Mixin
+        Common common;
+
+        @Override
+        public Integer call() throws IOException, InterruptedException {
+            return report(spec, common, () -> DecodeBench.run(features, keys, records, repeat, common.seed,
+                    warmupSeconds));
         }
     }
 }
